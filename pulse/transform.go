@@ -1,0 +1,110 @@
+package pulse
+
+import (
+	"fmt"
+	"math/cmplx"
+	"sync"
+
+	"gonum.org/v1/gonum/dsp/fourier"
+)
+
+// Transform is the one Fourier transform of the project, in the convention
+// of time dependence e^{-i w t}:
+//
+//	E(w) = ∫ E(t) e^{+i w t} dt,   discretised as   E_k = dt · Σ_n E_n e^{+2πi k n / N},
+//	E_n  = (1/(N dt)) · Σ_k E_k e^{-2πi k n / N}.
+//
+// With it a passive medium has n~ = n + iκ with κ >= 0, and a damped
+// oscillator responds as 1/(W^2 - w^2 - iγw). Most FFT libraries (gonum's
+// among them) use e^{-2πi kn/N} forward; for real input their result is the
+// complex conjugate of ours, which is how Forward computes it.
+//
+// A Transform holds a plan and a work buffer for one length N and is not safe
+// for concurrent use; Acquire and Release share plans between goroutines.
+// Only the one-sided half of the spectrum, bins k = 0 … N/2 at frequencies
+// k/(N dt), is stored: the input is real, so the rest is its conjugate mirror.
+type Transform struct {
+	n    int
+	plan *fourier.FFT
+	work []complex128
+}
+
+// NewTransform returns a transform for real sequences of length n >= 2.
+func NewTransform(n int) *Transform {
+	if n < 2 {
+		panic(fmt.Sprintf("pulse: transform length %d < 2", n))
+	}
+	return &Transform{n: n, plan: fourier.NewFFT(n), work: make([]complex128, n/2+1)}
+}
+
+// Len is the length N of the real sequences the transform takes.
+func (t *Transform) Len() int { return t.n }
+
+// Bins is the number of one-sided spectral bins, N/2 + 1.
+func (t *Transform) Bins() int { return t.n/2 + 1 }
+
+// Forward writes the one-sided spectrum of field (len N, sampled every stepS
+// seconds) into dst (len N/2+1, or nil to allocate) and returns it. The unit
+// of the result is the field's unit times seconds.
+func (t *Transform) Forward(dst []complex128, field []float64, stepS float64) []complex128 {
+	if len(field) != t.n {
+		panic(fmt.Sprintf("pulse: Forward got %d samples, plan is for %d", len(field), t.n))
+	}
+	if dst == nil {
+		dst = make([]complex128, t.Bins())
+	}
+	dst = t.plan.Coefficients(dst[:t.Bins()], field)
+	for k, c := range dst {
+		dst[k] = complex(stepS*real(c), -stepS*imag(c))
+	}
+	return dst
+}
+
+// Inverse writes the real sequence (len N) whose one-sided spectrum is spec
+// (len N/2+1, in the convention above) into dst (or nil to allocate) and
+// returns it. The imaginary parts of the DC and, for even N, Nyquist bins are
+// ignored, as they must vanish for a real sequence.
+func (t *Transform) Inverse(dst []float64, spec []complex128, stepS float64) []float64 {
+	if len(spec) != t.Bins() {
+		panic(fmt.Sprintf("pulse: Inverse got %d bins, plan has %d", len(spec), t.Bins()))
+	}
+	if dst == nil {
+		dst = make([]float64, t.n)
+	}
+	for k, c := range spec {
+		t.work[k] = cmplx.Conj(c)
+	}
+	dst = t.plan.Sequence(dst[:t.n], t.work)
+	scale := 1 / (float64(t.n) * stepS)
+	for i := range dst {
+		dst[i] *= scale
+	}
+	return dst
+}
+
+// FrequencyHz is the frequency of bin k for a sample step stepS.
+func (t *Transform) FrequencyHz(k int, stepS float64) float64 {
+	return float64(k) / (float64(t.n) * stepS)
+}
+
+var pools sync.Map // int -> *sync.Pool of *Transform
+
+// Acquire returns a transform of length n from a shared pool, building its
+// plan only the first time that length is seen (or after the pool dropped
+// it). Give it back with Release.
+func Acquire(n int) *Transform {
+	p, _ := pools.LoadOrStore(n, &sync.Pool{})
+	if t, ok := p.(*sync.Pool).Get().(*Transform); ok {
+		return t
+	}
+	return NewTransform(n)
+}
+
+// Release returns a transform obtained from Acquire to the pool.
+func Release(t *Transform) {
+	if t == nil {
+		return
+	}
+	p, _ := pools.LoadOrStore(t.n, &sync.Pool{})
+	p.(*sync.Pool).Put(t)
+}
