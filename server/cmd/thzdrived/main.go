@@ -1,0 +1,125 @@
+// Command thzdrived serves the thzdrive PumpPlanner service over gRPC.
+//
+// It starts with safe defaults and no configuration: gRPC on 127.0.0.1:50051,
+// loopback only. Every flag can also be set by an environment variable named
+// THZDRIVE_ and the flag in upper case with underscores, for example
+// THZDRIVE_GRPC_LISTEN=0.0.0.0:50051. A flag on the command line wins.
+//
+// SIGTERM or SIGINT drains the server: health turns NOT_SERVING, in-flight
+// calls finish (for at most --drain-timeout), and it exits 0.
+//
+// Laser safety: thzdrive plans experiments with class 4 lasers; it does not
+// make them safe. The local laser safety officer, the facility's rules and
+// IEC 60825-1 / ANSI Z136.1 govern.
+package main
+
+import (
+	"flag"
+	"fmt"
+	"log/slog"
+	"net"
+	"os"
+	"os/signal"
+	"strings"
+	"syscall"
+	"time"
+
+	"thzdrive/server"
+)
+
+func main() {
+	if err := run(os.Args[1:]); err != nil {
+		fmt.Fprintln(os.Stderr, "thzdrived:", err)
+		os.Exit(2)
+	}
+}
+
+func run(args []string) error {
+	fs := flag.NewFlagSet("thzdrived", flag.ContinueOnError)
+	lim := server.DefaultLimits()
+	grpcListen := fs.String("grpc-listen", "127.0.0.1:50051", "gRPC listen address HOST:PORT (port 0 picks a free one)")
+	logFormat := fs.String("log-format", "text", "log format: text or json")
+	drain := fs.Duration("drain-timeout", 20*time.Second, "longest wait for in-flight calls on shutdown")
+	fs.IntVar(&lim.MaxSamples, "max-samples", lim.MaxSamples, "most samples in one trace (after resampling and padding)")
+	fs.IntVar(&lim.MaxLayers, "max-layers", lim.MaxLayers, "most layers in one sample stack and optical train")
+	fs.IntVar(&lim.MaxSweepPoints, "max-sweep-points", lim.MaxSweepPoints, "most grid points in one sweep")
+	fs.IntVar(&lim.MaxMessageBytes, "max-message-bytes", lim.MaxMessageBytes, "largest request message, bytes")
+	streams := fs.Uint("max-concurrent-streams", uint(lim.MaxConcurrentStreams), "most concurrent calls on one connection")
+	fs.Usage = func() {
+		fmt.Fprintf(fs.Output(), "Usage: thzdrived [flags]\n\nServes the thzdrive PumpPlanner gRPC service. Every flag may also be set\nas THZDRIVE_<FLAG> in the environment (dashes as underscores).\n\nFlags:\n")
+		fs.PrintDefaults()
+	}
+	if err := fs.Parse(args); err != nil {
+		return err
+	}
+	if err := fromEnvironment(fs); err != nil {
+		return err
+	}
+	lim.MaxConcurrentStreams = uint32(*streams)
+	if lim.MaxSamples < 8 || lim.MaxLayers < 1 || lim.MaxSweepPoints < 1 || lim.MaxMessageBytes < 1024 || lim.MaxConcurrentStreams < 1 {
+		return fmt.Errorf("limits must be positive (max-samples >= 8, max-message-bytes >= 1024)")
+	}
+
+	var handler slog.Handler
+	switch *logFormat {
+	case "text":
+		handler = slog.NewTextHandler(os.Stderr, nil)
+	case "json":
+		handler = slog.NewJSONHandler(os.Stderr, nil)
+	default:
+		return fmt.Errorf("--log-format must be text or json, not %q", *logFormat)
+	}
+	log := slog.New(handler)
+
+	lis, err := net.Listen("tcp", *grpcListen)
+	if err != nil {
+		return err
+	}
+	if host, _, _ := net.SplitHostPort(lis.Addr().String()); !isLoopback(host) {
+		log.Warn("LISTENING BEYOND LOOPBACK WITHOUT TLS OR TOKENS: anyone who can reach this address can use the service", "grpc", lis.Addr().String())
+	}
+	srv := server.New(server.Config{Limits: lim, Logger: log})
+	log.Info("thzdrived serving", "grpc", lis.Addr().String(), "max_samples", lim.MaxSamples, "max_layers", lim.MaxLayers, "max_sweep_points", lim.MaxSweepPoints)
+
+	sig := make(chan os.Signal, 1)
+	signal.Notify(sig, syscall.SIGTERM, syscall.SIGINT)
+	errc := make(chan error, 1)
+	go func() { errc <- srv.GRPC.Serve(lis) }()
+	select {
+	case err := <-errc:
+		return err
+	case s := <-sig:
+		log.Info("draining", "signal", s.String(), "timeout", *drain)
+		srv.Drain(*drain)
+		log.Info("stopped")
+		return nil
+	}
+}
+
+// fromEnvironment sets each flag not given on the command line from
+// THZDRIVE_<NAME>, if that variable is set.
+func fromEnvironment(fs *flag.FlagSet) error {
+	given := map[string]bool{}
+	fs.Visit(func(f *flag.Flag) { given[f.Name] = true })
+	var err error
+	fs.VisitAll(func(f *flag.Flag) {
+		if given[f.Name] || err != nil {
+			return
+		}
+		name := "THZDRIVE_" + strings.ToUpper(strings.ReplaceAll(f.Name, "-", "_"))
+		if val, ok := os.LookupEnv(name); ok {
+			if e := fs.Set(f.Name, val); e != nil {
+				err = fmt.Errorf("%s=%q: %v", name, val, e)
+			}
+		}
+	})
+	return err
+}
+
+func isLoopback(host string) bool {
+	if host == "localhost" {
+		return true
+	}
+	ip := net.ParseIP(host)
+	return ip != nil && ip.IsLoopback()
+}

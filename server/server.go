@@ -1,0 +1,211 @@
+// Package server is the gRPC face of thzdrive: it translates PumpPlanner
+// wire messages into the physics packages' types (pulse, optics, phononmode,
+// thermal), calls them, and translates the results back. It holds no physics
+// of its own. Beside the translators (one file per method family) live the
+// shared pieces: validation, limits, the interceptors, and the wiring of
+// health, reflection and logging.
+package server
+
+import (
+	"context"
+	"crypto/rand"
+	"encoding/hex"
+	"log/slog"
+	"math"
+	"runtime/debug"
+	"time"
+
+	"google.golang.org/grpc"
+	"google.golang.org/grpc/codes"
+	"google.golang.org/grpc/health"
+	healthpb "google.golang.org/grpc/health/grpc_health_v1"
+	"google.golang.org/grpc/metadata"
+	"google.golang.org/grpc/reflection"
+	"google.golang.org/grpc/status"
+	"google.golang.org/protobuf/proto"
+	"google.golang.org/protobuf/reflect/protoreflect"
+
+	thzdrivev1 "thzdrive/api/thzdrive/v1"
+)
+
+// Limits bound the work one request may ask for. Each has a flag in
+// thzdrived; a request beyond a limit is refused with a message naming it.
+type Limits struct {
+	// MaxSamples bounds the samples of a trace, after resampling and padding.
+	MaxSamples int
+	// MaxLayers bounds the layers of a sample stack plus train elements.
+	MaxLayers int
+	// MaxSweepPoints bounds the grid points of one sweep.
+	MaxSweepPoints int
+	// MaxMessageBytes bounds a received message.
+	MaxMessageBytes int
+	// MaxConcurrentStreams bounds concurrent calls on one connection.
+	MaxConcurrentStreams uint32
+}
+
+// DefaultLimits are the limits of service.md.
+func DefaultLimits() Limits {
+	return Limits{
+		MaxSamples:           1 << 20,
+		MaxLayers:            64,
+		MaxSweepPoints:       1_000_000,
+		MaxMessageBytes:      64 << 20,
+		MaxConcurrentStreams: 256,
+	}
+}
+
+// Config configures a Server. The zero value is usable: default limits and
+// the default slog logger.
+type Config struct {
+	Limits Limits
+	Logger *slog.Logger
+}
+
+// Service implements thzdrivev1.PumpPlannerServer.
+type Service struct {
+	thzdrivev1.UnimplementedPumpPlannerServer
+	limits Limits
+	log    *slog.Logger
+}
+
+// Server is a ready gRPC server: PumpPlanner, the standard health service and
+// server reflection, behind the request-id, logging, recovery and
+// finite-response interceptors. thzdrived and the command-line tool's
+// in-process mode both build theirs with New.
+type Server struct {
+	GRPC    *grpc.Server
+	Health  *health.Server
+	Service *Service
+	log     *slog.Logger
+}
+
+// New builds a Server from cfg.
+func New(cfg Config) *Server {
+	if cfg.Limits == (Limits{}) {
+		cfg.Limits = DefaultLimits()
+	}
+	if cfg.Logger == nil {
+		cfg.Logger = slog.Default()
+	}
+	svc := &Service{limits: cfg.Limits, log: cfg.Logger}
+	g := grpc.NewServer(
+		grpc.MaxRecvMsgSize(cfg.Limits.MaxMessageBytes),
+		grpc.MaxSendMsgSize(math.MaxInt32),
+		grpc.MaxConcurrentStreams(cfg.Limits.MaxConcurrentStreams),
+		grpc.ChainUnaryInterceptor(unaryInterceptor(cfg.Logger)),
+		grpc.ChainStreamInterceptor(streamInterceptor(cfg.Logger)),
+	)
+	thzdrivev1.RegisterPumpPlannerServer(g, svc)
+	h := health.NewServer()
+	h.SetServingStatus("", healthpb.HealthCheckResponse_SERVING)
+	h.SetServingStatus(thzdrivev1.PumpPlanner_ServiceDesc.ServiceName, healthpb.HealthCheckResponse_SERVING)
+	healthpb.RegisterHealthServer(g, h)
+	reflection.Register(g)
+	return &Server{GRPC: g, Health: h, Service: svc, log: cfg.Logger}
+}
+
+// Drain marks the server NOT_SERVING, lets in-flight calls finish for at
+// most timeout, then stops it hard.
+func (s *Server) Drain(timeout time.Duration) {
+	s.Health.Shutdown()
+	done := make(chan struct{})
+	go func() {
+		s.GRPC.GracefulStop()
+		close(done)
+	}()
+	select {
+	case <-done:
+	case <-time.After(timeout):
+		s.log.Warn("drain timed out; stopping in-flight calls", "timeout", timeout)
+		s.GRPC.Stop()
+	}
+}
+
+// RequestIDHeader is the metadata key of the request id: taken from the
+// caller when it sends one, made up otherwise, and returned in the response
+// header so a lab can match its log to the server's.
+const RequestIDHeader = "x-request-id"
+
+func requestID(ctx context.Context) string {
+	if md, ok := metadata.FromIncomingContext(ctx); ok {
+		if ids := md.Get(RequestIDHeader); len(ids) > 0 && len(ids[0]) > 0 && len(ids[0]) <= 64 {
+			return ids[0]
+		}
+	}
+	var b [8]byte
+	_, _ = rand.Read(b[:])
+	return hex.EncodeToString(b[:])
+}
+
+func unaryInterceptor(log *slog.Logger) grpc.UnaryServerInterceptor {
+	return func(ctx context.Context, req any, info *grpc.UnaryServerInfo, handler grpc.UnaryHandler) (resp any, err error) {
+		id := requestID(ctx)
+		_ = grpc.SetHeader(ctx, metadata.Pairs(RequestIDHeader, id))
+		start := time.Now()
+		defer func() {
+			if r := recover(); r != nil {
+				log.Error("panic in handler", "request_id", id, "method", info.FullMethod, "panic", r, "stack", string(debug.Stack()))
+				resp, err = nil, status.Errorf(codes.Internal, "internal error (request id %s)", id)
+			}
+			if err == nil {
+				if m, ok := resp.(proto.Message); ok && !allFinite(m.ProtoReflect()) {
+					log.Error("response held NaN or Inf", "request_id", id, "method", info.FullMethod)
+					resp, err = nil, status.Errorf(codes.Internal, "internal error: result not finite (request id %s)", id)
+				}
+			}
+			log.Info("call", "request_id", id, "method", info.FullMethod, "code", status.Code(err).String(), "duration_ms", float64(time.Since(start).Microseconds())/1000)
+		}()
+		return handler(ctx, req)
+	}
+}
+
+func streamInterceptor(log *slog.Logger) grpc.StreamServerInterceptor {
+	return func(srv any, ss grpc.ServerStream, info *grpc.StreamServerInfo, handler grpc.StreamHandler) (err error) {
+		id := requestID(ss.Context())
+		_ = ss.SetHeader(metadata.Pairs(RequestIDHeader, id))
+		start := time.Now()
+		defer func() {
+			if r := recover(); r != nil {
+				log.Error("panic in stream handler", "request_id", id, "method", info.FullMethod, "panic", r, "stack", string(debug.Stack()))
+				err = status.Errorf(codes.Internal, "internal error (request id %s)", id)
+			}
+			log.Info("stream", "request_id", id, "method", info.FullMethod, "code", status.Code(err).String(), "duration_ms", float64(time.Since(start).Microseconds())/1000)
+		}()
+		return handler(srv, ss)
+	}
+}
+
+// allFinite walks a message and reports whether every float field is finite:
+// the last guard behind the promise that no response carries NaN or Inf.
+func allFinite(m protoreflect.Message) bool {
+	ok := true
+	m.Range(func(fd protoreflect.FieldDescriptor, v protoreflect.Value) bool {
+		switch {
+		case fd.IsList():
+			l := v.List()
+			for i := 0; i < l.Len() && ok; i++ {
+				ok = finiteValue(fd, l.Get(i))
+			}
+		case fd.IsMap():
+			v.Map().Range(func(_ protoreflect.MapKey, mv protoreflect.Value) bool {
+				ok = finiteValue(fd.MapValue(), mv)
+				return ok
+			})
+		default:
+			ok = finiteValue(fd, v)
+		}
+		return ok
+	})
+	return ok
+}
+
+func finiteValue(fd protoreflect.FieldDescriptor, v protoreflect.Value) bool {
+	switch fd.Kind() {
+	case protoreflect.DoubleKind, protoreflect.FloatKind:
+		x := v.Float()
+		return !math.IsNaN(x) && !math.IsInf(x, 0)
+	case protoreflect.MessageKind, protoreflect.GroupKind:
+		return allFinite(v.Message())
+	}
+	return true
+}
