@@ -23,9 +23,18 @@ import (
 // for concurrent use; Acquire and Release share plans between goroutines.
 // Only the one-sided half of the spectrum, bins k = 0 … N/2 at frequencies
 // k/(N dt), is stored: the input is real, so the rest is its conjugate mirror.
+//
+// Three paths compute the same sums (fft.go; each is tested against numpy.fft
+// and the DFT's definition): even lengths whose half has no prime factor
+// above 5 (every power of two, and every even length NextFastLength returns)
+// use a complex FFT of half the length; other lengths with no prime factor
+// above 5 use gonum's port of FFTPACK; all others, primes included, use
+// Bluestein's algorithm, so that no length costs more than O(N log N).
 type Transform struct {
 	n    int
-	plan *fourier.FFT
+	half *halfPlan    // even, half 5-smooth
+	blue *bluePlan    // not 5-smooth
+	plan *fourier.FFT // odd 5-smooth
 	work []complex128
 }
 
@@ -33,6 +42,12 @@ type Transform struct {
 func NewTransform(n int) *Transform {
 	if n < 2 {
 		panic(fmt.Sprintf("pulse: transform length %d < 2", n))
+	}
+	if hp := newHalfPlan(n); hp != nil {
+		return &Transform{n: n, half: hp}
+	}
+	if radices(n) == nil {
+		return &Transform{n: n, blue: newBluePlan(n)}
 	}
 	return &Transform{n: n, plan: fourier.NewFFT(n), work: make([]complex128, n/2+1)}
 }
@@ -53,6 +68,16 @@ func (t *Transform) Forward(dst []complex128, field []float64, stepS float64) []
 	if dst == nil {
 		dst = make([]complex128, t.Bins())
 	}
+	switch {
+	case t.half != nil:
+		dst = dst[:t.Bins()]
+		t.half.forward(dst, field, stepS, true)
+		return dst
+	case t.blue != nil:
+		dst = dst[:t.Bins()]
+		t.blue.forward(dst, field, stepS, true)
+		return dst
+	}
 	dst = t.plan.Coefficients(dst[:t.Bins()], field)
 	for k, c := range dst {
 		dst[k] = complex(stepS*real(c), -stepS*imag(c))
@@ -70,6 +95,15 @@ func (t *Transform) Inverse(dst []float64, spec []complex128, stepS float64) []f
 	}
 	if dst == nil {
 		dst = make([]float64, t.n)
+	}
+	switch {
+	case t.half != nil:
+		// spec holds dt·conj(X_k); the sum over it is m·dt times x.
+		t.half.inverse(dst[:t.n], spec, 1/(float64(t.half.m)*stepS), true)
+		return dst[:t.n]
+	case t.blue != nil:
+		t.blue.inverse(dst[:t.n], spec, 1/(float64(t.n)*stepS), true)
+		return dst[:t.n]
 	}
 	for k, c := range spec {
 		t.work[k] = cmplx.Conj(c)
