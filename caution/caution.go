@@ -40,6 +40,8 @@ const (
 	SmallMargin       // the heated spot comes within a small margin of Tc
 	OpticalDamage     // fluence past a damage rule of thumb
 	HeatingLarge      // a large single-pulse or steady-state rise
+	// Phonon mode, continued.
+	ModeNotDecayed // the mode still rings where the exact solution's padding ends (wrap-around)
 )
 
 var names = map[Code]string{
@@ -65,6 +67,7 @@ var names = map[Code]string{
 	SmallMargin:         "SMALL_MARGIN",
 	OpticalDamage:       "OPTICAL_DAMAGE",
 	HeatingLarge:        "HEATING_LARGE",
+	ModeNotDecayed:      "MODE_NOT_DECAYED",
 }
 
 // String returns the code's stable upper-case name.
@@ -96,3 +99,14 @@ func New(code Code, message string, values ...Value) Caution {
 
 // V is shorthand for a Value.
 func V(name string, number float64) Value { return Value{Name: name, Number: number} }
+
+// Codes lists every defined code, Unspecified included, in numeric order.
+func Codes() []Code {
+	out := make([]Code, 0, len(names))
+	for c := Unspecified; ; c++ {
+		if _, ok := names[c]; !ok {
+			return out
+		}
+		out = append(out, c)
+	}
+}

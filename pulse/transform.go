@@ -127,11 +127,20 @@ var pools sync.Map // int -> *sync.Pool of *Transform
 // plan only the first time that length is seen (or after the pool dropped
 // it). Give it back with Release.
 func Acquire(n int) *Transform {
-	p, _ := pools.LoadOrStore(n, &sync.Pool{})
-	if t, ok := p.(*sync.Pool).Get().(*Transform); ok {
+	if t, ok := poolFor(n).Get().(*Transform); ok {
 		return t
 	}
 	return NewTransform(n)
+}
+
+// poolFor returns the pool of length n, creating it only when it is missing
+// (a plain LoadOrStore would allocate a new pool on every call).
+func poolFor(n int) *sync.Pool {
+	if p, ok := pools.Load(n); ok {
+		return p.(*sync.Pool)
+	}
+	p, _ := pools.LoadOrStore(n, &sync.Pool{})
+	return p.(*sync.Pool)
 }
 
 // Release returns a transform obtained from Acquire to the pool.
@@ -139,6 +148,5 @@ func Release(t *Transform) {
 	if t == nil {
 		return
 	}
-	p, _ := pools.LoadOrStore(t.n, &sync.Pool{})
-	p.(*sync.Pool).Put(t)
+	poolFor(t.n).Put(t)
 }
