@@ -260,7 +260,7 @@ func (s *Service) CalibrateField(ctx context.Context, req *thzdrivev1.CalibrateF
 
 func (s *Service) calibrateByEnergy(v *violations, path string, e *thzdrivev1.EnergyCalibration, shape pulse.Trace, resolved *thzdrivev1.CalibrateFieldRequest) (*thzdrivev1.CalibrateFieldResponse, error) {
 	energyJ := s.resolveEnergy(v, path, e)
-	spot := resolveSpot(v, path, e)
+	spot := spotFrom(v.under(path+"."), e.SpotX, e.SpotY)
 	if e.FocusScaling && e.FocusReferenceFrequencyThz != 0 {
 		v.positive(path+".focus_reference_frequency_thz", e.FocusReferenceFrequencyThz)
 	}
@@ -315,15 +315,16 @@ func (s *Service) resolveEnergy(v *violations, path string, e *thzdrivev1.Energy
 	return 0
 }
 
-func resolveSpot(v *violations, path string, e *thzdrivev1.EnergyCalibration) pulse.Spot {
-	if e.SpotX == nil {
-		v.add(path+".spot_x", "the spot size is required")
+// spotFrom resolves a focal spot from its x and optional y axis.
+func spotFrom(v *violations, x, y *thzdrivev1.SpotSize) pulse.Spot {
+	if x == nil {
+		v.add("spot_x", "the spot size is required")
 		return pulse.Spot{}
 	}
-	wx := spotRadius(v, path+".spot_x", e.SpotX)
+	wx := spotRadius(v, "spot_x", x)
 	wy := wx
-	if e.SpotY != nil {
-		wy = spotRadius(v, path+".spot_y", e.SpotY)
+	if y != nil {
+		wy = spotRadius(v, "spot_y", y)
 	}
 	return pulse.Spot{RadiusXM: wx, RadiusYM: wy}
 }

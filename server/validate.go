@@ -15,7 +15,17 @@ import (
 // violations.err(), an INVALID_ARGUMENT status with a google.rpc.BadRequest
 // detail naming each field path (proto field names, with [i] for elements).
 type violations struct {
-	list []*errdetails.BadRequest_FieldViolation
+	list   *[]*errdetails.BadRequest_FieldViolation
+	prefix string
+}
+
+// under returns a view of v that prefixes every field path it records, for
+// a message nested in another (the drive of a SizeFieldRequest, say).
+func (v *violations) under(prefix string) *violations {
+	if v.list == nil {
+		v.list = new([]*errdetails.BadRequest_FieldViolation)
+	}
+	return &violations{list: v.list, prefix: v.prefix + prefix}
 }
 
 // maxReported bounds the detail size when, say, every sample of a long trace
@@ -23,13 +33,16 @@ type violations struct {
 const maxReported = 20
 
 func (v *violations) add(field, format string, args ...any) {
-	v.list = append(v.list, &errdetails.BadRequest_FieldViolation{
-		Field:       field,
+	if v.list == nil {
+		v.list = new([]*errdetails.BadRequest_FieldViolation)
+	}
+	*v.list = append(*v.list, &errdetails.BadRequest_FieldViolation{
+		Field:       v.prefix + field,
 		Description: fmt.Sprintf(format, args...),
 	})
 }
 
-func (v *violations) ok() bool { return len(v.list) == 0 }
+func (v *violations) ok() bool { return v.list == nil || len(*v.list) == 0 }
 
 // finite reports whether x is a finite number, recording a violation if not.
 func (v *violations) finite(field string, x float64) bool {
@@ -102,11 +115,12 @@ func (v *violations) err() error {
 	if v.ok() {
 		return nil
 	}
-	msg := fmt.Sprintf("invalid request: %s: %s", v.list[0].Field, v.list[0].Description)
-	if n := len(v.list); n > 1 {
+	list := *v.list
+	msg := fmt.Sprintf("invalid request: %s: %s", list[0].Field, list[0].Description)
+	if n := len(list); n > 1 {
 		msg += fmt.Sprintf(" (and %d more)", n-1)
 	}
-	st, err := status.New(codes.InvalidArgument, msg).WithDetails(&errdetails.BadRequest{FieldViolations: v.list})
+	st, err := status.New(codes.InvalidArgument, msg).WithDetails(&errdetails.BadRequest{FieldViolations: list})
 	if err != nil {
 		return status.Error(codes.InvalidArgument, msg)
 	}

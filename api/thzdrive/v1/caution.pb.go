@@ -69,6 +69,8 @@ const (
 	CautionCode_CAUTION_CODE_OPTICAL_DAMAGE CautionCode = 20
 	// A large single-pulse or steady-state temperature rise.
 	CautionCode_CAUTION_CODE_HEATING_LARGE CautionCode = 21
+	// The mode still rings at the end of the computed window (wrap-around risk).
+	CautionCode_CAUTION_CODE_MODE_NOT_DECAYED CautionCode = 22
 )
 
 // Enum value maps for CautionCode.
@@ -96,6 +98,7 @@ var (
 		19: "CAUTION_CODE_SMALL_MARGIN",
 		20: "CAUTION_CODE_OPTICAL_DAMAGE",
 		21: "CAUTION_CODE_HEATING_LARGE",
+		22: "CAUTION_CODE_MODE_NOT_DECAYED",
 	}
 	CautionCode_value = map[string]int32{
 		"CAUTION_CODE_UNSPECIFIED":            0,
@@ -120,6 +123,7 @@ var (
 		"CAUTION_CODE_SMALL_MARGIN":           19,
 		"CAUTION_CODE_OPTICAL_DAMAGE":         20,
 		"CAUTION_CODE_HEATING_LARGE":          21,
+		"CAUTION_CODE_MODE_NOT_DECAYED":       22,
 	}
 )
 
@@ -293,7 +297,7 @@ const file_thzdrive_v1_caution_proto_rawDesc = "" +
 	"\x04code\x18\x01 \x01(\x0e2\x18.thzdrive.v1.CautionCodeR\x04code\x12\x18\n" +
 	"\amessage\x18\x02 \x01(\tR\amessage\x121\n" +
 	"\x06values\x18\x03 \x03(\v2\x19.thzdrive.v1.CautionValueR\x06values\x12\x14\n" +
-	"\x05stage\x18\x04 \x01(\tR\x05stage*\x81\x06\n" +
+	"\x05stage\x18\x04 \x01(\tR\x05stage*\xa4\x06\n" +
 	"\vCautionCode\x12\x1c\n" +
 	"\x18CAUTION_CODE_UNSPECIFIED\x10\x00\x12\x1a\n" +
 	"\x16CAUTION_CODE_DC_OFFSET\x10\x01\x12\x1c\n" +
@@ -317,7 +321,8 @@ const file_thzdrive_v1_caution_proto_rawDesc = "" +
 	"\x1fCAUTION_CODE_CROSSES_TRANSITION\x10\x12\x12\x1d\n" +
 	"\x19CAUTION_CODE_SMALL_MARGIN\x10\x13\x12\x1f\n" +
 	"\x1bCAUTION_CODE_OPTICAL_DAMAGE\x10\x14\x12\x1e\n" +
-	"\x1aCAUTION_CODE_HEATING_LARGE\x10\x15B%Z#thzdrive/api/thzdrive/v1;thzdrivev1b\x06proto3"
+	"\x1aCAUTION_CODE_HEATING_LARGE\x10\x15\x12!\n" +
+	"\x1dCAUTION_CODE_MODE_NOT_DECAYED\x10\x16B%Z#thzdrive/api/thzdrive/v1;thzdrivev1b\x06proto3"
 
 var (
 	file_thzdrive_v1_caution_proto_rawDescOnce sync.Once

@@ -19,8 +19,13 @@ import (
 const _ = grpc.SupportPackageIsVersion9
 
 const (
-	PumpPlanner_AnalyzePulse_FullMethodName   = "/thzdrive.v1.PumpPlanner/AnalyzePulse"
-	PumpPlanner_CalibrateField_FullMethodName = "/thzdrive.v1.PumpPlanner/CalibrateField"
+	PumpPlanner_AnalyzePulse_FullMethodName    = "/thzdrive.v1.PumpPlanner/AnalyzePulse"
+	PumpPlanner_CalibrateField_FullMethodName  = "/thzdrive.v1.PumpPlanner/CalibrateField"
+	PumpPlanner_Propagate_FullMethodName       = "/thzdrive.v1.PumpPlanner/Propagate"
+	PumpPlanner_DriveMode_FullMethodName       = "/thzdrive.v1.PumpPlanner/DriveMode"
+	PumpPlanner_SizeField_FullMethodName       = "/thzdrive.v1.PumpPlanner/SizeField"
+	PumpPlanner_ListMaterials_FullMethodName   = "/thzdrive.v1.PumpPlanner/ListMaterials"
+	PumpPlanner_EstimateHeating_FullMethodName = "/thzdrive.v1.PumpPlanner/EstimateHeating"
 )
 
 // PumpPlannerClient is the client API for PumpPlanner service.
@@ -36,6 +41,18 @@ type PumpPlannerClient interface {
 	// Absolute field of a waveform from pulse energy and spot, or from an
 	// electro-optic signal.
 	CalibrateField(ctx context.Context, in *CalibrateFieldRequest, opts ...grpc.CallOption) (*CalibrateFieldResponse, error)
+	// Transmission of a waveform through an optical train into a sample, and
+	// the field at a target depth.
+	Propagate(ctx context.Context, in *PropagateRequest, opts ...grpc.CallOption) (*PropagateResponse, error)
+	// The response of a phonon mode to the field inside the sample.
+	DriveMode(ctx context.Context, in *DriveModeRequest, opts ...grpc.CallOption) (*DriveModeResponse, error)
+	// The incident field, pulse energy and fluence that reach a target mode
+	// amplitude.
+	SizeField(ctx context.Context, in *SizeFieldRequest, opts ...grpc.CallOption) (*SizeFieldResponse, error)
+	// The embedded material catalogue.
+	ListMaterials(ctx context.Context, in *ListMaterialsRequest, opts ...grpc.CallOption) (*ListMaterialsResponse, error)
+	// Single-pulse and steady-state heating and the transition budget.
+	EstimateHeating(ctx context.Context, in *EstimateHeatingRequest, opts ...grpc.CallOption) (*EstimateHeatingResponse, error)
 }
 
 type pumpPlannerClient struct {
@@ -66,6 +83,56 @@ func (c *pumpPlannerClient) CalibrateField(ctx context.Context, in *CalibrateFie
 	return out, nil
 }
 
+func (c *pumpPlannerClient) Propagate(ctx context.Context, in *PropagateRequest, opts ...grpc.CallOption) (*PropagateResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(PropagateResponse)
+	err := c.cc.Invoke(ctx, PumpPlanner_Propagate_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+func (c *pumpPlannerClient) DriveMode(ctx context.Context, in *DriveModeRequest, opts ...grpc.CallOption) (*DriveModeResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(DriveModeResponse)
+	err := c.cc.Invoke(ctx, PumpPlanner_DriveMode_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+func (c *pumpPlannerClient) SizeField(ctx context.Context, in *SizeFieldRequest, opts ...grpc.CallOption) (*SizeFieldResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(SizeFieldResponse)
+	err := c.cc.Invoke(ctx, PumpPlanner_SizeField_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+func (c *pumpPlannerClient) ListMaterials(ctx context.Context, in *ListMaterialsRequest, opts ...grpc.CallOption) (*ListMaterialsResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(ListMaterialsResponse)
+	err := c.cc.Invoke(ctx, PumpPlanner_ListMaterials_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+func (c *pumpPlannerClient) EstimateHeating(ctx context.Context, in *EstimateHeatingRequest, opts ...grpc.CallOption) (*EstimateHeatingResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(EstimateHeatingResponse)
+	err := c.cc.Invoke(ctx, PumpPlanner_EstimateHeating_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
 // PumpPlannerServer is the server API for PumpPlanner service.
 // All implementations must embed UnimplementedPumpPlannerServer
 // for forward compatibility.
@@ -79,6 +146,18 @@ type PumpPlannerServer interface {
 	// Absolute field of a waveform from pulse energy and spot, or from an
 	// electro-optic signal.
 	CalibrateField(context.Context, *CalibrateFieldRequest) (*CalibrateFieldResponse, error)
+	// Transmission of a waveform through an optical train into a sample, and
+	// the field at a target depth.
+	Propagate(context.Context, *PropagateRequest) (*PropagateResponse, error)
+	// The response of a phonon mode to the field inside the sample.
+	DriveMode(context.Context, *DriveModeRequest) (*DriveModeResponse, error)
+	// The incident field, pulse energy and fluence that reach a target mode
+	// amplitude.
+	SizeField(context.Context, *SizeFieldRequest) (*SizeFieldResponse, error)
+	// The embedded material catalogue.
+	ListMaterials(context.Context, *ListMaterialsRequest) (*ListMaterialsResponse, error)
+	// Single-pulse and steady-state heating and the transition budget.
+	EstimateHeating(context.Context, *EstimateHeatingRequest) (*EstimateHeatingResponse, error)
 	mustEmbedUnimplementedPumpPlannerServer()
 }
 
@@ -94,6 +173,21 @@ func (UnimplementedPumpPlannerServer) AnalyzePulse(context.Context, *AnalyzePuls
 }
 func (UnimplementedPumpPlannerServer) CalibrateField(context.Context, *CalibrateFieldRequest) (*CalibrateFieldResponse, error) {
 	return nil, status.Error(codes.Unimplemented, "method CalibrateField not implemented")
+}
+func (UnimplementedPumpPlannerServer) Propagate(context.Context, *PropagateRequest) (*PropagateResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method Propagate not implemented")
+}
+func (UnimplementedPumpPlannerServer) DriveMode(context.Context, *DriveModeRequest) (*DriveModeResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method DriveMode not implemented")
+}
+func (UnimplementedPumpPlannerServer) SizeField(context.Context, *SizeFieldRequest) (*SizeFieldResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method SizeField not implemented")
+}
+func (UnimplementedPumpPlannerServer) ListMaterials(context.Context, *ListMaterialsRequest) (*ListMaterialsResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method ListMaterials not implemented")
+}
+func (UnimplementedPumpPlannerServer) EstimateHeating(context.Context, *EstimateHeatingRequest) (*EstimateHeatingResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method EstimateHeating not implemented")
 }
 func (UnimplementedPumpPlannerServer) mustEmbedUnimplementedPumpPlannerServer() {}
 func (UnimplementedPumpPlannerServer) testEmbeddedByValue()                     {}
@@ -152,6 +246,96 @@ func _PumpPlanner_CalibrateField_Handler(srv interface{}, ctx context.Context, d
 	return interceptor(ctx, in, info, handler)
 }
 
+func _PumpPlanner_Propagate_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(PropagateRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(PumpPlannerServer).Propagate(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: PumpPlanner_Propagate_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(PumpPlannerServer).Propagate(ctx, req.(*PropagateRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
+func _PumpPlanner_DriveMode_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(DriveModeRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(PumpPlannerServer).DriveMode(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: PumpPlanner_DriveMode_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(PumpPlannerServer).DriveMode(ctx, req.(*DriveModeRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
+func _PumpPlanner_SizeField_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(SizeFieldRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(PumpPlannerServer).SizeField(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: PumpPlanner_SizeField_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(PumpPlannerServer).SizeField(ctx, req.(*SizeFieldRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
+func _PumpPlanner_ListMaterials_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(ListMaterialsRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(PumpPlannerServer).ListMaterials(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: PumpPlanner_ListMaterials_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(PumpPlannerServer).ListMaterials(ctx, req.(*ListMaterialsRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
+func _PumpPlanner_EstimateHeating_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(EstimateHeatingRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(PumpPlannerServer).EstimateHeating(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: PumpPlanner_EstimateHeating_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(PumpPlannerServer).EstimateHeating(ctx, req.(*EstimateHeatingRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
 // PumpPlanner_ServiceDesc is the grpc.ServiceDesc for PumpPlanner service.
 // It's only intended for direct use with grpc.RegisterService,
 // and not to be introspected or modified (even as a copy)
@@ -166,6 +350,26 @@ var PumpPlanner_ServiceDesc = grpc.ServiceDesc{
 		{
 			MethodName: "CalibrateField",
 			Handler:    _PumpPlanner_CalibrateField_Handler,
+		},
+		{
+			MethodName: "Propagate",
+			Handler:    _PumpPlanner_Propagate_Handler,
+		},
+		{
+			MethodName: "DriveMode",
+			Handler:    _PumpPlanner_DriveMode_Handler,
+		},
+		{
+			MethodName: "SizeField",
+			Handler:    _PumpPlanner_SizeField_Handler,
+		},
+		{
+			MethodName: "ListMaterials",
+			Handler:    _PumpPlanner_ListMaterials_Handler,
+		},
+		{
+			MethodName: "EstimateHeating",
+			Handler:    _PumpPlanner_EstimateHeating_Handler,
 		},
 	},
 	Streams:  []grpc.StreamDesc{},
