@@ -24,13 +24,15 @@ var File_thzdrive_v1_service_proto protoreflect.FileDescriptor
 
 const file_thzdrive_v1_service_proto_rawDesc = "" +
 	"\n" +
-	"\x19thzdrive/v1/service.proto\x12\vthzdrive.v1\x1a\x16thzdrive/v1/mode.proto\x1a\x18thzdrive/v1/optics.proto\x1a\x17thzdrive/v1/pulse.proto\x1a\x19thzdrive/v1/thermal.proto2\xd7\x04\n" +
+	"\x19thzdrive/v1/service.proto\x12\vthzdrive.v1\x1a\x16thzdrive/v1/mode.proto\x1a\x18thzdrive/v1/optics.proto\x1a\x16thzdrive/v1/plan.proto\x1a\x17thzdrive/v1/pulse.proto\x1a\x19thzdrive/v1/thermal.proto2\xf4\x05\n" +
 	"\vPumpPlanner\x12S\n" +
 	"\fAnalyzePulse\x12 .thzdrive.v1.AnalyzePulseRequest\x1a!.thzdrive.v1.AnalyzePulseResponse\x12Y\n" +
 	"\x0eCalibrateField\x12\".thzdrive.v1.CalibrateFieldRequest\x1a#.thzdrive.v1.CalibrateFieldResponse\x12J\n" +
 	"\tPropagate\x12\x1d.thzdrive.v1.PropagateRequest\x1a\x1e.thzdrive.v1.PropagateResponse\x12J\n" +
 	"\tDriveMode\x12\x1d.thzdrive.v1.DriveModeRequest\x1a\x1e.thzdrive.v1.DriveModeResponse\x12J\n" +
-	"\tSizeField\x12\x1d.thzdrive.v1.SizeFieldRequest\x1a\x1e.thzdrive.v1.SizeFieldResponse\x12V\n" +
+	"\tSizeField\x12\x1d.thzdrive.v1.SizeFieldRequest\x1a\x1e.thzdrive.v1.SizeFieldResponse\x12Y\n" +
+	"\x0ePlanExperiment\x12\".thzdrive.v1.PlanExperimentRequest\x1a#.thzdrive.v1.PlanExperimentResponse\x12@\n" +
+	"\x05Sweep\x12\x19.thzdrive.v1.SweepRequest\x1a\x1a.thzdrive.v1.SweepResponse0\x01\x12V\n" +
 	"\rListMaterials\x12!.thzdrive.v1.ListMaterialsRequest\x1a\".thzdrive.v1.ListMaterialsResponse\x12\\\n" +
 	"\x0fEstimateHeating\x12#.thzdrive.v1.EstimateHeatingRequest\x1a$.thzdrive.v1.EstimateHeatingResponseB%Z#thzdrive/api/thzdrive/v1;thzdrivev1b\x06proto3"
 
@@ -40,15 +42,19 @@ var file_thzdrive_v1_service_proto_goTypes = []any{
 	(*PropagateRequest)(nil),        // 2: thzdrive.v1.PropagateRequest
 	(*DriveModeRequest)(nil),        // 3: thzdrive.v1.DriveModeRequest
 	(*SizeFieldRequest)(nil),        // 4: thzdrive.v1.SizeFieldRequest
-	(*ListMaterialsRequest)(nil),    // 5: thzdrive.v1.ListMaterialsRequest
-	(*EstimateHeatingRequest)(nil),  // 6: thzdrive.v1.EstimateHeatingRequest
-	(*AnalyzePulseResponse)(nil),    // 7: thzdrive.v1.AnalyzePulseResponse
-	(*CalibrateFieldResponse)(nil),  // 8: thzdrive.v1.CalibrateFieldResponse
-	(*PropagateResponse)(nil),       // 9: thzdrive.v1.PropagateResponse
-	(*DriveModeResponse)(nil),       // 10: thzdrive.v1.DriveModeResponse
-	(*SizeFieldResponse)(nil),       // 11: thzdrive.v1.SizeFieldResponse
-	(*ListMaterialsResponse)(nil),   // 12: thzdrive.v1.ListMaterialsResponse
-	(*EstimateHeatingResponse)(nil), // 13: thzdrive.v1.EstimateHeatingResponse
+	(*PlanExperimentRequest)(nil),   // 5: thzdrive.v1.PlanExperimentRequest
+	(*SweepRequest)(nil),            // 6: thzdrive.v1.SweepRequest
+	(*ListMaterialsRequest)(nil),    // 7: thzdrive.v1.ListMaterialsRequest
+	(*EstimateHeatingRequest)(nil),  // 8: thzdrive.v1.EstimateHeatingRequest
+	(*AnalyzePulseResponse)(nil),    // 9: thzdrive.v1.AnalyzePulseResponse
+	(*CalibrateFieldResponse)(nil),  // 10: thzdrive.v1.CalibrateFieldResponse
+	(*PropagateResponse)(nil),       // 11: thzdrive.v1.PropagateResponse
+	(*DriveModeResponse)(nil),       // 12: thzdrive.v1.DriveModeResponse
+	(*SizeFieldResponse)(nil),       // 13: thzdrive.v1.SizeFieldResponse
+	(*PlanExperimentResponse)(nil),  // 14: thzdrive.v1.PlanExperimentResponse
+	(*SweepResponse)(nil),           // 15: thzdrive.v1.SweepResponse
+	(*ListMaterialsResponse)(nil),   // 16: thzdrive.v1.ListMaterialsResponse
+	(*EstimateHeatingResponse)(nil), // 17: thzdrive.v1.EstimateHeatingResponse
 }
 var file_thzdrive_v1_service_proto_depIdxs = []int32{
 	0,  // 0: thzdrive.v1.PumpPlanner.AnalyzePulse:input_type -> thzdrive.v1.AnalyzePulseRequest
@@ -56,17 +62,21 @@ var file_thzdrive_v1_service_proto_depIdxs = []int32{
 	2,  // 2: thzdrive.v1.PumpPlanner.Propagate:input_type -> thzdrive.v1.PropagateRequest
 	3,  // 3: thzdrive.v1.PumpPlanner.DriveMode:input_type -> thzdrive.v1.DriveModeRequest
 	4,  // 4: thzdrive.v1.PumpPlanner.SizeField:input_type -> thzdrive.v1.SizeFieldRequest
-	5,  // 5: thzdrive.v1.PumpPlanner.ListMaterials:input_type -> thzdrive.v1.ListMaterialsRequest
-	6,  // 6: thzdrive.v1.PumpPlanner.EstimateHeating:input_type -> thzdrive.v1.EstimateHeatingRequest
-	7,  // 7: thzdrive.v1.PumpPlanner.AnalyzePulse:output_type -> thzdrive.v1.AnalyzePulseResponse
-	8,  // 8: thzdrive.v1.PumpPlanner.CalibrateField:output_type -> thzdrive.v1.CalibrateFieldResponse
-	9,  // 9: thzdrive.v1.PumpPlanner.Propagate:output_type -> thzdrive.v1.PropagateResponse
-	10, // 10: thzdrive.v1.PumpPlanner.DriveMode:output_type -> thzdrive.v1.DriveModeResponse
-	11, // 11: thzdrive.v1.PumpPlanner.SizeField:output_type -> thzdrive.v1.SizeFieldResponse
-	12, // 12: thzdrive.v1.PumpPlanner.ListMaterials:output_type -> thzdrive.v1.ListMaterialsResponse
-	13, // 13: thzdrive.v1.PumpPlanner.EstimateHeating:output_type -> thzdrive.v1.EstimateHeatingResponse
-	7,  // [7:14] is the sub-list for method output_type
-	0,  // [0:7] is the sub-list for method input_type
+	5,  // 5: thzdrive.v1.PumpPlanner.PlanExperiment:input_type -> thzdrive.v1.PlanExperimentRequest
+	6,  // 6: thzdrive.v1.PumpPlanner.Sweep:input_type -> thzdrive.v1.SweepRequest
+	7,  // 7: thzdrive.v1.PumpPlanner.ListMaterials:input_type -> thzdrive.v1.ListMaterialsRequest
+	8,  // 8: thzdrive.v1.PumpPlanner.EstimateHeating:input_type -> thzdrive.v1.EstimateHeatingRequest
+	9,  // 9: thzdrive.v1.PumpPlanner.AnalyzePulse:output_type -> thzdrive.v1.AnalyzePulseResponse
+	10, // 10: thzdrive.v1.PumpPlanner.CalibrateField:output_type -> thzdrive.v1.CalibrateFieldResponse
+	11, // 11: thzdrive.v1.PumpPlanner.Propagate:output_type -> thzdrive.v1.PropagateResponse
+	12, // 12: thzdrive.v1.PumpPlanner.DriveMode:output_type -> thzdrive.v1.DriveModeResponse
+	13, // 13: thzdrive.v1.PumpPlanner.SizeField:output_type -> thzdrive.v1.SizeFieldResponse
+	14, // 14: thzdrive.v1.PumpPlanner.PlanExperiment:output_type -> thzdrive.v1.PlanExperimentResponse
+	15, // 15: thzdrive.v1.PumpPlanner.Sweep:output_type -> thzdrive.v1.SweepResponse
+	16, // 16: thzdrive.v1.PumpPlanner.ListMaterials:output_type -> thzdrive.v1.ListMaterialsResponse
+	17, // 17: thzdrive.v1.PumpPlanner.EstimateHeating:output_type -> thzdrive.v1.EstimateHeatingResponse
+	9,  // [9:18] is the sub-list for method output_type
+	0,  // [0:9] is the sub-list for method input_type
 	0,  // [0:0] is the sub-list for extension type_name
 	0,  // [0:0] is the sub-list for extension extendee
 	0,  // [0:0] is the sub-list for field type_name
@@ -79,6 +89,7 @@ func file_thzdrive_v1_service_proto_init() {
 	}
 	file_thzdrive_v1_mode_proto_init()
 	file_thzdrive_v1_optics_proto_init()
+	file_thzdrive_v1_plan_proto_init()
 	file_thzdrive_v1_pulse_proto_init()
 	file_thzdrive_v1_thermal_proto_init()
 	type x struct{}

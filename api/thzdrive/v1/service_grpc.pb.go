@@ -24,6 +24,8 @@ const (
 	PumpPlanner_Propagate_FullMethodName       = "/thzdrive.v1.PumpPlanner/Propagate"
 	PumpPlanner_DriveMode_FullMethodName       = "/thzdrive.v1.PumpPlanner/DriveMode"
 	PumpPlanner_SizeField_FullMethodName       = "/thzdrive.v1.PumpPlanner/SizeField"
+	PumpPlanner_PlanExperiment_FullMethodName  = "/thzdrive.v1.PumpPlanner/PlanExperiment"
+	PumpPlanner_Sweep_FullMethodName           = "/thzdrive.v1.PumpPlanner/Sweep"
 	PumpPlanner_ListMaterials_FullMethodName   = "/thzdrive.v1.PumpPlanner/ListMaterials"
 	PumpPlanner_EstimateHeating_FullMethodName = "/thzdrive.v1.PumpPlanner/EstimateHeating"
 )
@@ -49,6 +51,11 @@ type PumpPlannerClient interface {
 	// The incident field, pulse energy and fluence that reach a target mode
 	// amplitude.
 	SizeField(ctx context.Context, in *SizeFieldRequest, opts ...grpc.CallOption) (*SizeFieldResponse, error)
+	// The whole chain forward in one call: source -> train -> sample -> mode
+	// -> heating.
+	PlanExperiment(ctx context.Context, in *PlanExperimentRequest, opts ...grpc.CallOption) (*PlanExperimentResponse, error)
+	// A plan over a grid of one or two parameters, streamed point by point.
+	Sweep(ctx context.Context, in *SweepRequest, opts ...grpc.CallOption) (grpc.ServerStreamingClient[SweepResponse], error)
 	// The embedded material catalogue.
 	ListMaterials(ctx context.Context, in *ListMaterialsRequest, opts ...grpc.CallOption) (*ListMaterialsResponse, error)
 	// Single-pulse and steady-state heating and the transition budget.
@@ -113,6 +120,35 @@ func (c *pumpPlannerClient) SizeField(ctx context.Context, in *SizeFieldRequest,
 	return out, nil
 }
 
+func (c *pumpPlannerClient) PlanExperiment(ctx context.Context, in *PlanExperimentRequest, opts ...grpc.CallOption) (*PlanExperimentResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(PlanExperimentResponse)
+	err := c.cc.Invoke(ctx, PumpPlanner_PlanExperiment_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+func (c *pumpPlannerClient) Sweep(ctx context.Context, in *SweepRequest, opts ...grpc.CallOption) (grpc.ServerStreamingClient[SweepResponse], error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	stream, err := c.cc.NewStream(ctx, &PumpPlanner_ServiceDesc.Streams[0], PumpPlanner_Sweep_FullMethodName, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	x := &grpc.GenericClientStream[SweepRequest, SweepResponse]{ClientStream: stream}
+	if err := x.ClientStream.SendMsg(in); err != nil {
+		return nil, err
+	}
+	if err := x.ClientStream.CloseSend(); err != nil {
+		return nil, err
+	}
+	return x, nil
+}
+
+// This type alias is provided for backwards compatibility with existing code that references the prior non-generic stream type by name.
+type PumpPlanner_SweepClient = grpc.ServerStreamingClient[SweepResponse]
+
 func (c *pumpPlannerClient) ListMaterials(ctx context.Context, in *ListMaterialsRequest, opts ...grpc.CallOption) (*ListMaterialsResponse, error) {
 	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
 	out := new(ListMaterialsResponse)
@@ -154,6 +190,11 @@ type PumpPlannerServer interface {
 	// The incident field, pulse energy and fluence that reach a target mode
 	// amplitude.
 	SizeField(context.Context, *SizeFieldRequest) (*SizeFieldResponse, error)
+	// The whole chain forward in one call: source -> train -> sample -> mode
+	// -> heating.
+	PlanExperiment(context.Context, *PlanExperimentRequest) (*PlanExperimentResponse, error)
+	// A plan over a grid of one or two parameters, streamed point by point.
+	Sweep(*SweepRequest, grpc.ServerStreamingServer[SweepResponse]) error
 	// The embedded material catalogue.
 	ListMaterials(context.Context, *ListMaterialsRequest) (*ListMaterialsResponse, error)
 	// Single-pulse and steady-state heating and the transition budget.
@@ -182,6 +223,12 @@ func (UnimplementedPumpPlannerServer) DriveMode(context.Context, *DriveModeReque
 }
 func (UnimplementedPumpPlannerServer) SizeField(context.Context, *SizeFieldRequest) (*SizeFieldResponse, error) {
 	return nil, status.Error(codes.Unimplemented, "method SizeField not implemented")
+}
+func (UnimplementedPumpPlannerServer) PlanExperiment(context.Context, *PlanExperimentRequest) (*PlanExperimentResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method PlanExperiment not implemented")
+}
+func (UnimplementedPumpPlannerServer) Sweep(*SweepRequest, grpc.ServerStreamingServer[SweepResponse]) error {
+	return status.Error(codes.Unimplemented, "method Sweep not implemented")
 }
 func (UnimplementedPumpPlannerServer) ListMaterials(context.Context, *ListMaterialsRequest) (*ListMaterialsResponse, error) {
 	return nil, status.Error(codes.Unimplemented, "method ListMaterials not implemented")
@@ -300,6 +347,35 @@ func _PumpPlanner_SizeField_Handler(srv interface{}, ctx context.Context, dec fu
 	return interceptor(ctx, in, info, handler)
 }
 
+func _PumpPlanner_PlanExperiment_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(PlanExperimentRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(PumpPlannerServer).PlanExperiment(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: PumpPlanner_PlanExperiment_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(PumpPlannerServer).PlanExperiment(ctx, req.(*PlanExperimentRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
+func _PumpPlanner_Sweep_Handler(srv interface{}, stream grpc.ServerStream) error {
+	m := new(SweepRequest)
+	if err := stream.RecvMsg(m); err != nil {
+		return err
+	}
+	return srv.(PumpPlannerServer).Sweep(m, &grpc.GenericServerStream[SweepRequest, SweepResponse]{ServerStream: stream})
+}
+
+// This type alias is provided for backwards compatibility with existing code that references the prior non-generic stream type by name.
+type PumpPlanner_SweepServer = grpc.ServerStreamingServer[SweepResponse]
+
 func _PumpPlanner_ListMaterials_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
 	in := new(ListMaterialsRequest)
 	if err := dec(in); err != nil {
@@ -364,6 +440,10 @@ var PumpPlanner_ServiceDesc = grpc.ServiceDesc{
 			Handler:    _PumpPlanner_SizeField_Handler,
 		},
 		{
+			MethodName: "PlanExperiment",
+			Handler:    _PumpPlanner_PlanExperiment_Handler,
+		},
+		{
 			MethodName: "ListMaterials",
 			Handler:    _PumpPlanner_ListMaterials_Handler,
 		},
@@ -372,6 +452,12 @@ var PumpPlanner_ServiceDesc = grpc.ServiceDesc{
 			Handler:    _PumpPlanner_EstimateHeating_Handler,
 		},
 	},
-	Streams:  []grpc.StreamDesc{},
+	Streams: []grpc.StreamDesc{
+		{
+			StreamName:    "Sweep",
+			Handler:       _PumpPlanner_Sweep_Handler,
+			ServerStreams: true,
+		},
+	},
 	Metadata: "thzdrive/v1/service.proto",
 }
