@@ -44,6 +44,8 @@ type Report struct {
 	PeakFluenceJPerM2 float64
 	// PulseEnergyJ is the incident pulse energy (0 without a spot).
 	PulseEnergyJ float64
+	// IncidentMetrics are the metrics of the absolute incident waveform.
+	IncidentMetrics pulse.Metrics
 	// Drive is the optics and mode stages.
 	Drive Drive
 	// Heating is nil without Experiment.Heating.
@@ -80,10 +82,13 @@ func Run(e Experiment) (Report, error) {
 			return Report{}, &StageError{StageSource, errors.New("give the pulse energy and spot, or an absolute waveform (kV/cm)")}
 		}
 		r.Incident = src.Waveform
-		an, err := pulse.Analyze(src.Waveform, pulse.Processing{})
-		if err != nil {
-			return Report{}, &StageError{StageSource, err}
-		}
+	}
+	an, err := pulse.Analyze(r.Incident, pulse.Processing{})
+	if err != nil {
+		return Report{}, &StageError{StageSource, err}
+	}
+	r.IncidentMetrics = an.Metrics
+	if r.Calibration == nil {
 		r.PeakFluenceJPerM2 = an.Metrics.FluenceJPerM2
 		if src.Spot.RadiusXM > 0 {
 			// Inverse of F0 = 2W/(π wx wy) (physics.md §3).

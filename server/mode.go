@@ -55,6 +55,9 @@ func (s *Service) resolveDrive(v *violations, r *thzdrivev1.DriveModeRequest, sh
 		v.add("waveform", "a mode needs an absolute field: give the trace in kV/cm, or calibrate it first")
 	}
 	if r.Sample != nil {
+		if r.Target == nil {
+			r.Target = &thzdrivev1.Target{}
+		}
 		train := s.resolveTrain(v, r)
 		c.Train = &train
 		c.PadToSamples = s.resolvePad(v, "pad_to_samples", &r.PadToSamples, incident.Len())

@@ -18,6 +18,9 @@ func (s *Service) Propagate(ctx context.Context, req *thzdrivev1.PropagateReques
 	resolved := proto.Clone(req).(*thzdrivev1.PropagateRequest)
 	var v violations
 	tr, _ := s.resolveWaveform(&v, "waveform", resolved.GetWaveform())
+	if resolved.Target == nil {
+		resolved.Target = &thzdrivev1.Target{}
+	}
 	train := s.resolveTrain(&v, resolved)
 	padTo := s.resolvePad(&v, "pad_to_samples", &resolved.PadToSamples, tr.Len())
 	if err := v.err(); err != nil {
