@@ -59,6 +59,12 @@ func DefaultLimits() Limits {
 type Config struct {
 	Limits Limits
 	Logger *slog.Logger
+	// Tokens, when not nil, are the bearer tokens every call but health
+	// must carry.
+	Tokens *Tokens
+	// ServerOptions are appended to the gRPC server's options (transport
+	// credentials for TLS, say).
+	ServerOptions []grpc.ServerOption
 }
 
 // Service implements thzdrivev1.PumpPlannerServer.
@@ -88,13 +94,14 @@ func New(cfg Config) *Server {
 		cfg.Logger = slog.Default()
 	}
 	svc := &Service{limits: cfg.Limits, log: cfg.Logger}
-	g := grpc.NewServer(
+	opts := []grpc.ServerOption{
 		grpc.MaxRecvMsgSize(cfg.Limits.MaxMessageBytes),
 		grpc.MaxSendMsgSize(math.MaxInt32),
 		grpc.MaxConcurrentStreams(cfg.Limits.MaxConcurrentStreams),
-		grpc.ChainUnaryInterceptor(unaryInterceptor(cfg.Logger)),
-		grpc.ChainStreamInterceptor(streamInterceptor(cfg.Logger)),
-	)
+		grpc.ChainUnaryInterceptor(unaryInterceptor(cfg.Logger), cfg.Tokens.unary()),
+		grpc.ChainStreamInterceptor(streamInterceptor(cfg.Logger), cfg.Tokens.stream()),
+	}
+	g := grpc.NewServer(append(opts, cfg.ServerOptions...)...)
 	thzdrivev1.RegisterPumpPlannerServer(g, svc)
 	h := health.NewServer()
 	h.SetServingStatus("", healthpb.HealthCheckResponse_SERVING)

@@ -24,6 +24,9 @@ import (
 	"syscall"
 	"time"
 
+	"google.golang.org/grpc"
+	"google.golang.org/grpc/credentials"
+
 	"thzdrive/server"
 )
 
@@ -40,6 +43,10 @@ func run(args []string) error {
 	grpcListen := fs.String("grpc-listen", "127.0.0.1:50051", "gRPC listen address HOST:PORT (port 0 picks a free one)")
 	logFormat := fs.String("log-format", "text", "log format: text or json")
 	drain := fs.Duration("drain-timeout", 20*time.Second, "longest wait for in-flight calls on shutdown")
+	tlsCert := fs.String("tls-cert", "", "TLS certificate file (PEM); with --tls-key turns TLS on")
+	tlsKey := fs.String("tls-key", "", "TLS private key file (PEM)")
+	tlsClientCA := fs.String("tls-client-ca", "", "CA file (PEM) that client certificates must chain to: mutual TLS")
+	tokenFile := fs.String("token-file", "", "file of bearer tokens, one per line; every call but health must carry one (SIGHUP reloads it)")
 	fs.IntVar(&lim.MaxSamples, "max-samples", lim.MaxSamples, "most samples in one trace (after resampling and padding)")
 	fs.IntVar(&lim.MaxLayers, "max-layers", lim.MaxLayers, "most layers in one sample stack and optical train")
 	fs.IntVar(&lim.MaxSweepPoints, "max-sweep-points", lim.MaxSweepPoints, "most grid points in one sweep")
@@ -71,28 +78,59 @@ func run(args []string) error {
 	}
 	log := slog.New(handler)
 
+	cfg := server.Config{Limits: lim, Logger: log}
+	secure := false
+	if *tlsCert != "" || *tlsKey != "" || *tlsClientCA != "" {
+		tc, err := server.TLSConfig(*tlsCert, *tlsKey, *tlsClientCA)
+		if err != nil {
+			return err
+		}
+		cfg.ServerOptions = append(cfg.ServerOptions, grpc.Creds(credentials.NewTLS(tc)))
+		secure = true
+	}
+	if *tokenFile != "" {
+		tokens, err := server.LoadTokens(*tokenFile)
+		if err != nil {
+			return err
+		}
+		cfg.Tokens = tokens
+		log.Info("bearer tokens loaded", "count", tokens.Len())
+	}
+
 	lis, err := net.Listen("tcp", *grpcListen)
 	if err != nil {
 		return err
 	}
-	if host, _, _ := net.SplitHostPort(lis.Addr().String()); !isLoopback(host) {
-		log.Warn("LISTENING BEYOND LOOPBACK WITHOUT TLS OR TOKENS: anyone who can reach this address can use the service", "grpc", lis.Addr().String())
+	if host, _, _ := net.SplitHostPort(lis.Addr().String()); !isLoopback(host) && (!secure || cfg.Tokens == nil) {
+		log.Warn("LISTENING BEYOND LOOPBACK WITHOUT BOTH TLS AND TOKENS: anyone who can reach this address can use the service, and traffic may be read", "grpc", lis.Addr().String(), "tls", secure, "tokens", cfg.Tokens != nil)
 	}
-	srv := server.New(server.Config{Limits: lim, Logger: log})
+	srv := server.New(cfg)
 	log.Info("thzdrived serving", "grpc", lis.Addr().String(), "max_samples", lim.MaxSamples, "max_layers", lim.MaxLayers, "max_sweep_points", lim.MaxSweepPoints)
 
 	sig := make(chan os.Signal, 1)
-	signal.Notify(sig, syscall.SIGTERM, syscall.SIGINT)
+	signal.Notify(sig, syscall.SIGTERM, syscall.SIGINT, syscall.SIGHUP)
 	errc := make(chan error, 1)
 	go func() { errc <- srv.GRPC.Serve(lis) }()
-	select {
-	case err := <-errc:
-		return err
-	case s := <-sig:
-		log.Info("draining", "signal", s.String(), "timeout", *drain)
-		srv.Drain(*drain)
-		log.Info("stopped")
-		return nil
+	for {
+		select {
+		case err := <-errc:
+			return err
+		case s := <-sig:
+			if s == syscall.SIGHUP {
+				if cfg.Tokens == nil {
+					log.Info("SIGHUP: no token file to reload")
+				} else if err := cfg.Tokens.Reload(); err != nil {
+					log.Error("token reload failed; the previous tokens stay in force", "err", err)
+				} else {
+					log.Info("bearer tokens reloaded", "count", cfg.Tokens.Len())
+				}
+				continue
+			}
+			log.Info("draining", "signal", s.String(), "timeout", *drain)
+			srv.Drain(*drain)
+			log.Info("stopped")
+			return nil
+		}
 	}
 }
 
