@@ -39,8 +39,17 @@ type Limits struct {
 	MaxSweepPoints int
 	// MaxMessageBytes bounds a received message.
 	MaxMessageBytes int
-	// MaxConcurrentStreams bounds concurrent calls on one connection.
+	// MaxConcurrentStreams bounds concurrent calls on one connection (HTTP/2
+	// SETTINGS; a client queues beyond it). Kept below MaxConcurrentCalls so
+	// that one connection cannot take every slot.
 	MaxConcurrentStreams uint32
+	// MaxConcurrentCalls bounds the calls being computed at once over all
+	// connections; one more is refused at once with RESOURCE_EXHAUSTED
+	// (health is exempt), rather than queued where it would hold memory.
+	MaxConcurrentCalls int
+	// MaxCallDuration is the deadline given to a call that brings none, and
+	// the longest one a call may ask for.
+	MaxCallDuration time.Duration
 }
 
 // DefaultLimits are the limits of service.md.
@@ -50,7 +59,9 @@ func DefaultLimits() Limits {
 		MaxLayers:            64,
 		MaxSweepPoints:       1_000_000,
 		MaxMessageBytes:      64 << 20,
-		MaxConcurrentStreams: 256,
+		MaxConcurrentStreams: 64,
+		MaxConcurrentCalls:   256,
+		MaxCallDuration:      10 * time.Minute,
 	}
 }
 
@@ -83,6 +94,11 @@ type Server struct {
 	Health  *health.Server
 	Service *Service
 	log     *slog.Logger
+	metrics *metrics
+	// loop serves the HTTP/JSON gateway over an in-memory connection: the
+	// same service and interceptors as GRPC, without its transport
+	// credentials (see http.go).
+	loop *grpc.Server
 }
 
 // New builds a Server from cfg.
@@ -94,12 +110,14 @@ func New(cfg Config) *Server {
 		cfg.Logger = slog.Default()
 	}
 	svc := &Service{limits: cfg.Limits, log: cfg.Logger}
+	lim := newLimiter(cfg.Limits)
+	m := newMetrics()
 	opts := []grpc.ServerOption{
 		grpc.MaxRecvMsgSize(cfg.Limits.MaxMessageBytes),
 		grpc.MaxSendMsgSize(math.MaxInt32),
 		grpc.MaxConcurrentStreams(cfg.Limits.MaxConcurrentStreams),
-		grpc.ChainUnaryInterceptor(unaryInterceptor(cfg.Logger), cfg.Tokens.unary()),
-		grpc.ChainStreamInterceptor(streamInterceptor(cfg.Logger), cfg.Tokens.stream()),
+		grpc.ChainUnaryInterceptor(m.unary(), unaryInterceptor(cfg.Logger), cfg.Tokens.unary(), lim.unary()),
+		grpc.ChainStreamInterceptor(m.stream(), streamInterceptor(cfg.Logger), cfg.Tokens.stream(), lim.stream()),
 	}
 	g := grpc.NewServer(append(opts, cfg.ServerOptions...)...)
 	thzdrivev1.RegisterPumpPlannerServer(g, svc)
@@ -108,16 +126,25 @@ func New(cfg Config) *Server {
 	h.SetServingStatus(thzdrivev1.PumpPlanner_ServiceDesc.ServiceName, healthpb.HealthCheckResponse_SERVING)
 	healthpb.RegisterHealthServer(g, h)
 	reflection.Register(g)
-	return &Server{GRPC: g, Health: h, Service: svc, log: cfg.Logger}
+	// The gateway multiplexes every HTTP caller over one connection: no
+	// per-connection stream bound there; the call limiter still applies.
+	loop := grpc.NewServer(append(opts[:len(opts):len(opts)], grpc.MaxConcurrentStreams(math.MaxUint32))...)
+	thzdrivev1.RegisterPumpPlannerServer(loop, svc)
+	return &Server{GRPC: g, Health: h, Service: svc, log: cfg.Logger, metrics: m, loop: loop}
 }
 
-// Drain marks the server NOT_SERVING, lets in-flight calls finish for at
-// most timeout, then stops it hard.
-func (s *Server) Drain(timeout time.Duration) {
+// Drain marks the server NOT_SERVING, keeps serving for delay (so that load
+// balancers and probes notice and stop sending), then refuses new calls and
+// lets in-flight calls finish for at most timeout before stopping hard.
+func (s *Server) Drain(delay, timeout time.Duration) {
 	s.Health.Shutdown()
+	time.Sleep(delay)
 	done := make(chan struct{})
 	go func() {
+		loopDone := make(chan struct{})
+		go func() { s.loop.GracefulStop(); close(loopDone) }() // HTTP/JSON calls
 		s.GRPC.GracefulStop()
+		<-loopDone
 		close(done)
 	}()
 	select {
@@ -125,6 +152,7 @@ func (s *Server) Drain(timeout time.Duration) {
 	case <-time.After(timeout):
 		s.log.Warn("drain timed out; stopping in-flight calls", "timeout", timeout)
 		s.GRPC.Stop()
+		s.loop.Stop()
 	}
 }
 

@@ -31,14 +31,14 @@ type sweepAxis struct {
 // all cores; a cancelled or expired call stops handing out points at once
 // and returns when the points in flight are done.
 func (s *Service) Sweep(req *thzdrivev1.SweepRequest, stream thzdrivev1.PumpPlanner_SweepServer) error {
-	axes, total, err := s.resolveSweep(req)
+	axes, total, first, end, err := s.resolveSweep(req)
 	if err != nil {
 		return err
 	}
 	ctx, cancel := context.WithCancel(stream.Context())
 	defer cancel()
 
-	workers := min(runtime.GOMAXPROCS(0), int(total))
+	workers := int(min(int64(runtime.GOMAXPROCS(0)), end-first))
 	jobs := make(chan int64)
 	results := make(chan *thzdrivev1.SweepResponse, workers)
 	var wg sync.WaitGroup
@@ -58,7 +58,7 @@ func (s *Service) Sweep(req *thzdrivev1.SweepRequest, stream thzdrivev1.PumpPlan
 	}
 	go func() {
 		defer close(jobs)
-		for i := int64(0); i < total; i++ {
+		for i := first; i < end; i++ {
 			select {
 			case jobs <- i:
 			case <-ctx.Done():
@@ -90,8 +90,9 @@ func (s *Service) Sweep(req *thzdrivev1.SweepRequest, stream thzdrivev1.PumpPlan
 	return nil
 }
 
-// resolveSweep validates the axes and the grid size.
-func (s *Service) resolveSweep(req *thzdrivev1.SweepRequest) ([]sweepAxis, int64, error) {
+// resolveSweep validates the axes, the grid size and the index range, and
+// returns the axes, the grid's size and the range [first, end) to compute.
+func (s *Service) resolveSweep(req *thzdrivev1.SweepRequest) (axes []sweepAxis, total, first, end int64, err error) {
 	var v violations
 	if req.Plan == nil {
 		v.add("plan", "the plan template is required")
@@ -100,10 +101,9 @@ func (s *Service) resolveSweep(req *thzdrivev1.SweepRequest) ([]sweepAxis, int64
 		v.add("axes", "give one or two axes, got %d", n)
 	}
 	if !v.ok() {
-		return nil, 0, v.err()
+		return nil, 0, 0, 0, v.err()
 	}
-	var axes []sweepAxis
-	total := int64(1)
+	total = 1
 	for i, a := range req.Axes {
 		path := fmt.Sprintf("axes[%d].", i)
 		vals := axisValues(v.under(path), a, s.limits.MaxSweepPoints)
@@ -126,10 +126,21 @@ func (s *Service) resolveSweep(req *thzdrivev1.SweepRequest) ([]sweepAxis, int64
 	if v.ok() && total > int64(s.limits.MaxSweepPoints) {
 		v.add("axes", "the grid has %d points, over the limit of %d", total, s.limits.MaxSweepPoints)
 	}
-	if err := v.err(); err != nil {
-		return nil, 0, err
+	first, end = req.FirstIndex, total
+	if req.PointCount != 0 {
+		end = first + req.PointCount
 	}
-	return axes, total, nil
+	switch {
+	case !v.ok():
+	case first < 0 || first >= total:
+		v.add("first_index", "must be in [0, %d), got %d", total, first)
+	case req.PointCount < 0 || end > total:
+		v.add("point_count", "%d points from index %d pass the end of the %d-point grid", req.PointCount, first, total)
+	}
+	if err := v.err(); err != nil {
+		return nil, 0, 0, 0, err
+	}
+	return axes, total, first, end, nil
 }
 
 // axisValues returns the values of one axis: the explicit list, or count

@@ -658,7 +658,13 @@ type SweepRequest struct {
 	Axes []*SweepAxis `protobuf:"bytes,2,rep,name=axes,proto3" json:"axes,omitempty"`
 	// Send the whole PlanExperimentResponse with each point, not only the
 	// headline numbers.
-	FullResults   bool `protobuf:"varint,3,opt,name=full_results,json=fullResults,proto3" json:"full_results,omitempty"`
+	FullResults bool `protobuf:"varint,3,opt,name=full_results,json=fullResults,proto3" json:"full_results,omitempty"`
+	// Compute only the grid points with index in [first_index,
+	// first_index + point_count): lets a client split one grid over several
+	// replicas and ask again for the points a failed replica did not send.
+	FirstIndex int64 `protobuf:"varint,4,opt,name=first_index,json=firstIndex,proto3" json:"first_index,omitempty"`
+	// Number of points from first_index (0: to the end of the grid).
+	PointCount    int64 `protobuf:"varint,5,opt,name=point_count,json=pointCount,proto3" json:"point_count,omitempty"`
 	unknownFields protoimpl.UnknownFields
 	sizeCache     protoimpl.SizeCache
 }
@@ -712,6 +718,20 @@ func (x *SweepRequest) GetFullResults() bool {
 		return x.FullResults
 	}
 	return false
+}
+
+func (x *SweepRequest) GetFirstIndex() int64 {
+	if x != nil {
+		return x.FirstIndex
+	}
+	return 0
+}
+
+func (x *SweepRequest) GetPointCount() int64 {
+	if x != nil {
+		return x.PointCount
+	}
+	return 0
 }
 
 // SweepHeadline is the headline numbers of one point.
@@ -1066,11 +1086,15 @@ const file_thzdrive_v1_plan_proto_rawDesc = "" +
 	"\x05start\x18\x03 \x01(\x01R\x05start\x12\x12\n" +
 	"\x04stop\x18\x04 \x01(\x01R\x04stop\x12\x14\n" +
 	"\x05count\x18\x05 \x01(\x05R\x05count\x12 \n" +
-	"\vlogarithmic\x18\x06 \x01(\bR\vlogarithmic\"\x95\x01\n" +
+	"\vlogarithmic\x18\x06 \x01(\bR\vlogarithmic\"\xd7\x01\n" +
 	"\fSweepRequest\x126\n" +
 	"\x04plan\x18\x01 \x01(\v2\".thzdrive.v1.PlanExperimentRequestR\x04plan\x12*\n" +
 	"\x04axes\x18\x02 \x03(\v2\x16.thzdrive.v1.SweepAxisR\x04axes\x12!\n" +
-	"\ffull_results\x18\x03 \x01(\bR\vfullResults\"\x8f\x04\n" +
+	"\ffull_results\x18\x03 \x01(\bR\vfullResults\x12\x1f\n" +
+	"\vfirst_index\x18\x04 \x01(\x03R\n" +
+	"firstIndex\x12\x1f\n" +
+	"\vpoint_count\x18\x05 \x01(\x03R\n" +
+	"pointCount\"\x8f\x04\n" +
 	"\rSweepHeadline\x12?\n" +
 	"\x1dincident_peak_field_kv_per_cm\x18\x01 \x01(\x01R\x18incidentPeakFieldKvPerCm\x12&\n" +
 	"\x0fpulse_energy_uj\x18\x02 \x01(\x01R\rpulseEnergyUj\x12;\n" +

@@ -52,6 +52,9 @@ func run(args []string) error {
 	fs.IntVar(&lim.MaxSweepPoints, "max-sweep-points", lim.MaxSweepPoints, "most grid points in one sweep")
 	fs.IntVar(&lim.MaxMessageBytes, "max-message-bytes", lim.MaxMessageBytes, "largest request message, bytes")
 	streams := fs.Uint("max-concurrent-streams", uint(lim.MaxConcurrentStreams), "most concurrent calls on one connection")
+	fs.IntVar(&lim.MaxConcurrentCalls, "max-concurrent-calls", lim.MaxConcurrentCalls, "most calls computed at once; more are refused with RESOURCE_EXHAUSTED")
+	fs.DurationVar(&lim.MaxCallDuration, "max-call-duration", lim.MaxCallDuration, "deadline of a call that brings none, and the longest allowed")
+	drainDelay := fs.Duration("drain-delay", 0, "on shutdown, report NOT_SERVING for this long before refusing new calls (lets load balancers notice)")
 	fs.Usage = func() {
 		fmt.Fprintf(fs.Output(), "Usage: thzdrived [flags]\n\nServes the thzdrive PumpPlanner gRPC service. Every flag may also be set\nas THZDRIVE_<FLAG> in the environment (dashes as underscores).\n\nFlags:\n")
 		fs.PrintDefaults()
@@ -127,7 +130,7 @@ func run(args []string) error {
 				continue
 			}
 			log.Info("draining", "signal", s.String(), "timeout", *drain)
-			srv.Drain(*drain)
+			srv.Drain(*drainDelay, *drain)
 			log.Info("stopped")
 			return nil
 		}
