@@ -26,6 +26,7 @@ import (
 
 	"google.golang.org/grpc"
 	"google.golang.org/grpc/credentials"
+	healthpb "google.golang.org/grpc/health/grpc_health_v1"
 
 	"thzdrive/server"
 )
@@ -46,6 +47,7 @@ func run(args []string) error {
 	tlsCert := fs.String("tls-cert", "", "TLS certificate file (PEM); with --tls-key turns TLS on")
 	tlsKey := fs.String("tls-key", "", "TLS private key file (PEM)")
 	tlsClientCA := fs.String("tls-client-ca", "", "CA file (PEM) that client certificates must chain to: mutual TLS")
+	healthListen := fs.String("health-listen", "", "extra plaintext listener serving only the gRPC health service (for probes that cannot speak TLS); empty: none")
 	tokenFile := fs.String("token-file", "", "file of bearer tokens, one per line; every call but health must carry one (SIGHUP reloads it)")
 	fs.IntVar(&lim.MaxSamples, "max-samples", lim.MaxSamples, "most samples in one trace (after resampling and padding)")
 	fs.IntVar(&lim.MaxLayers, "max-layers", lim.MaxLayers, "most layers in one sample stack and optical train")
@@ -109,6 +111,18 @@ func run(args []string) error {
 	}
 	srv := server.New(cfg)
 	log.Info("thzdrived serving", "grpc", lis.Addr().String(), "max_samples", lim.MaxSamples, "max_layers", lim.MaxLayers, "max_sweep_points", lim.MaxSweepPoints)
+
+	if *healthListen != "" {
+		hl, err := net.Listen("tcp", *healthListen)
+		if err != nil {
+			return err
+		}
+		hs := grpc.NewServer()
+		healthpb.RegisterHealthServer(hs, srv.Health)
+		go func() { _ = hs.Serve(hl) }()
+		defer hs.Stop()
+		log.Info("health-only listener", "addr", hl.Addr().String())
+	}
 
 	sig := make(chan os.Signal, 1)
 	signal.Notify(sig, syscall.SIGTERM, syscall.SIGINT, syscall.SIGHUP)
