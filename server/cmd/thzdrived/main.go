@@ -1,12 +1,16 @@
-// Command thzdrived serves the thzdrive PumpPlanner service over gRPC.
+// Command thzdrived serves the thzdrive PumpPlanner service over gRPC, and
+// the same methods as JSON over HTTP.
 //
 // It starts with safe defaults and no configuration: gRPC on 127.0.0.1:50051,
-// loopback only. Every flag can also be set by an environment variable named
-// THZDRIVE_ and the flag in upper case with underscores, for example
-// THZDRIVE_GRPC_LISTEN=0.0.0.0:50051. A flag on the command line wins.
+// HTTP on 127.0.0.1:8080 (JSON at POST /v1/..., /openapi.json, /metrics,
+// /healthz), loopback only. Every flag can also be set by an environment
+// variable named THZDRIVE_ and the flag in upper case with underscores, for
+// example THZDRIVE_GRPC_LISTEN=0.0.0.0:50051. A flag on the command line
+// wins.
 //
 // SIGTERM or SIGINT drains the server: health turns NOT_SERVING, in-flight
-// calls finish (for at most --drain-timeout), and it exits 0.
+// calls finish (for at most --drain-timeout), over gRPC and HTTP alike, and
+// it exits 0.
 //
 // Laser safety: thzdrive plans experiments with class 4 lasers; it does not
 // make them safe. The local laser safety officer, the facility's rules and
@@ -14,10 +18,14 @@
 package main
 
 import (
+	"context"
+	"crypto/tls"
+	"errors"
 	"flag"
 	"fmt"
 	"log/slog"
 	"net"
+	"net/http"
 	"os"
 	"os/signal"
 	"strings"
@@ -42,6 +50,7 @@ func run(args []string) error {
 	fs := flag.NewFlagSet("thzdrived", flag.ContinueOnError)
 	lim := server.DefaultLimits()
 	grpcListen := fs.String("grpc-listen", "127.0.0.1:50051", "gRPC listen address HOST:PORT (port 0 picks a free one)")
+	httpListen := fs.String("http-listen", "127.0.0.1:8080", "HTTP listen address HOST:PORT for JSON over HTTP (POST /v1/...), /openapi.json, /metrics and /healthz; empty: no HTTP")
 	logFormat := fs.String("log-format", "text", "log format: text or json")
 	drain := fs.Duration("drain-timeout", 20*time.Second, "longest wait for in-flight calls on shutdown")
 	tlsCert := fs.String("tls-cert", "", "TLS certificate file (PEM); with --tls-key turns TLS on")
@@ -85,11 +94,13 @@ func run(args []string) error {
 
 	cfg := server.Config{Limits: lim, Logger: log}
 	secure := false
+	var httpTLS *tls.Config // the HTTP port uses the same certificate
 	if *tlsCert != "" || *tlsKey != "" || *tlsClientCA != "" {
 		tc, err := server.TLSConfig(*tlsCert, *tlsKey, *tlsClientCA)
 		if err != nil {
 			return err
 		}
+		httpTLS = tc
 		cfg.ServerOptions = append(cfg.ServerOptions, grpc.Creds(credentials.NewTLS(tc)))
 		secure = true
 	}
@@ -124,9 +135,18 @@ func run(args []string) error {
 		log.Info("health-only listener", "addr", hl.Addr().String())
 	}
 
+	errc := make(chan error, 2)
+	var hs *http.Server
+	if *httpListen != "" {
+		ctx, cancel := context.WithCancel(context.Background())
+		defer cancel()
+		if hs, err = serveHTTP(ctx, srv, *httpListen, httpTLS, cfg.Tokens != nil, log, errc); err != nil {
+			return err
+		}
+	}
+
 	sig := make(chan os.Signal, 1)
 	signal.Notify(sig, syscall.SIGTERM, syscall.SIGINT, syscall.SIGHUP)
-	errc := make(chan error, 1)
 	go func() { errc <- srv.GRPC.Serve(lis) }()
 	for {
 		select {
@@ -144,7 +164,9 @@ func run(args []string) error {
 				continue
 			}
 			log.Info("draining", "signal", s.String(), "timeout", *drain)
+			httpDone := drainHTTP(hs, *drainDelay, *drain)
 			srv.Drain(*drainDelay, *drain)
+			<-httpDone
 			log.Info("stopped")
 			return nil
 		}
@@ -177,4 +199,63 @@ func isLoopback(host string) bool {
 	}
 	ip := net.ParseIP(host)
 	return ip != nil && ip.IsLoopback()
+}
+
+// serveHTTP starts the HTTP port: the JSON gateway, /openapi.json, /metrics
+// and /healthz (server.HTTPHandler), over TLS when tc is not nil.
+func serveHTTP(ctx context.Context, srv *server.Server, addr string, tc *tls.Config, tokens bool, log *slog.Logger, errc chan<- error) (*http.Server, error) {
+	h, err := srv.HTTPHandler(ctx)
+	if err != nil {
+		return nil, err
+	}
+	lis, err := net.Listen("tcp", addr)
+	if err != nil {
+		return nil, err
+	}
+	if host, _, _ := net.SplitHostPort(lis.Addr().String()); !isLoopback(host) && (tc == nil || !tokens) {
+		log.Warn("HTTP LISTENING BEYOND LOOPBACK WITHOUT BOTH TLS AND TOKENS: anyone who can reach this address can use the service, and traffic may be read", "http", lis.Addr().String(), "tls", tc != nil, "tokens", tokens)
+	}
+	hs := &http.Server{
+		Handler:           h,
+		TLSConfig:         tc,
+		ReadHeaderTimeout: 10 * time.Second,
+		IdleTimeout:       2 * time.Minute,
+		ErrorLog:          slog.NewLogLogger(log.Handler(), slog.LevelWarn),
+		// No write timeout: a sweep streams for as long as it computes
+		// (bounded by --max-call-duration).
+	}
+	go func() {
+		var err error
+		if tc != nil {
+			err = hs.ServeTLS(lis, "", "")
+		} else {
+			err = hs.Serve(lis)
+		}
+		if !errors.Is(err, http.ErrServerClosed) {
+			errc <- err
+		}
+	}()
+	log.Info("thzdrived serving HTTP", "http", lis.Addr().String(), "tls", tc != nil, "routes", "POST /v1/... (see /openapi.json), GET /openapi.json /metrics /healthz")
+	return hs, nil
+}
+
+// drainHTTP keeps the HTTP port open for delay (as gRPC keeps serving while
+// health reports NOT_SERVING), then stops taking connections and waits at
+// most timeout for requests in flight. The returned channel closes when done.
+func drainHTTP(hs *http.Server, delay, timeout time.Duration) <-chan struct{} {
+	done := make(chan struct{})
+	if hs == nil {
+		close(done)
+		return done
+	}
+	go func() {
+		defer close(done)
+		time.Sleep(delay)
+		ctx, cancel := context.WithTimeout(context.Background(), timeout)
+		defer cancel()
+		if hs.Shutdown(ctx) != nil {
+			hs.Close()
+		}
+	}()
+	return done
 }
