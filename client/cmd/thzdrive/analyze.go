@@ -1,8 +1,10 @@
 package main
 
 import (
+	"errors"
 	"flag"
 	"fmt"
+	"io"
 
 	thzdrivev1 "thzdrive/api/thzdrive/v1"
 )
@@ -19,8 +21,8 @@ func runAnalyze(a *app, args []string) error {
 		fmt.Fprintf(fs.Output(), "Usage: thzdrive analyze [flags]\n\nSpectrum, metrics and cautions of a model pulse or of a measured trace\n(--trace FILE with two columns: time in ps, field).\n\nExample:\n  thzdrive analyze --shape single-cycle --peak-frequency 1THz --peak-field \"100 kV/cm\"\n\nFlags:\n")
 		fs.PrintDefaults()
 	}
-	if err := fs.Parse(args); err != nil {
-		return usageIfNotHelp(err)
+	if err := a.parseNoArgs(fs, args); err != nil {
+		return err
 	}
 	w, err := wf.waveform()
 	if err != nil {
@@ -69,7 +71,8 @@ func runAnalyze(a *app, args []string) error {
 	s.add("spectral peak", m.SpectralPeakThz, "THz")
 	s.add("centroid", m.CentroidThz, "THz")
 	s.add("FWHM of |E(f)|^2", m.BandwidthFwhmThz, "THz")
-	s.text("band within 20 dB", fmt.Sprintf("%s – %s THz", num(m.BandLowThz), num(m.BandHighThz)))
+	s.add("20 dB band, low edge", m.BandLowThz, "THz")
+	s.add("20 dB band, high edge", m.BandHighThz, "THz")
 	s.add("dynamic range", m.DynamicRangeDb, "dB")
 	s.add("resolution", m.ResolutionThz, "THz")
 	s.add("Nyquist", m.NyquistThz, "THz")
@@ -77,10 +80,43 @@ func runAnalyze(a *app, args []string) error {
 	return nil
 }
 
-// usageIfNotHelp turns a flag parsing error into a usage error; -h is not one.
-func usageIfNotHelp(err error) error {
-	if err == flag.ErrHelp {
+// parseFlags parses a command's flags, which may come before, between or
+// after its positional arguments, and returns the positional arguments.
+// -h prints the command's help on standard output (and returns
+// flag.ErrHelp, exit 0); a bad flag is a usage error that names the help,
+// without printing all of it.
+func (a *app) parseFlags(fs *flag.FlagSet, args []string) ([]string, error) {
+	fs.SetOutput(io.Discard)
+	var pos []string
+	for {
+		err := fs.Parse(args)
+		if errors.Is(err, flag.ErrHelp) {
+			fs.SetOutput(a.stdout)
+			fs.Usage()
+			return nil, err
+		}
+		if err != nil {
+			return nil, usagef("%v (see 'thzdrive help %s')", err, fs.Name())
+		}
+		if fs.NArg() == 0 {
+			return pos, nil
+		}
+		if used := len(args) - fs.NArg(); used > 0 && args[used-1] == "--" {
+			return append(pos, fs.Args()...), nil // all that follows "--" is an argument
+		}
+		pos = append(pos, fs.Arg(0))
+		args = fs.Args()[1:]
+	}
+}
+
+// parseNoArgs parses the flags of a command that takes no arguments.
+func (a *app) parseNoArgs(fs *flag.FlagSet, args []string) error {
+	pos, err := a.parseFlags(fs, args)
+	if err != nil {
 		return err
 	}
-	return usageError{err}
+	if len(pos) > 0 {
+		return usagef("%s takes no arguments, got %q (see 'thzdrive help %s')", fs.Name(), pos[0], fs.Name())
+	}
+	return nil
 }

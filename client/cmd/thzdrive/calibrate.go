@@ -45,8 +45,8 @@ Flags:
 `)
 		fs.PrintDefaults()
 	}
-	if err := fs.Parse(args); err != nil {
-		return usageIfNotHelp(err)
+	if err := a.parseNoArgs(fs, args); err != nil {
+		return err
 	}
 	req := &thzdrivev1.CalibrateFieldRequest{}
 	if *modTrace == "" {

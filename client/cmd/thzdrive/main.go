@@ -1,7 +1,10 @@
 // Command thzdrive is the command-line face of the thzdrive service: it
-// analyses THz waveforms, calibrates them to absolute field and (as the
-// service grows) plans pump experiments, printing a report for a person or
-// JSON for a program.
+// analyses THz waveforms and calibrates them to absolute field, carries them
+// through the beam path into the sample, drives a phonon mode, sizes the
+// field a target amplitude needs, estimates the heating, and plans or sweeps
+// a whole experiment described by a scenario file (a PlanExperimentRequest
+// in YAML or JSON). It prints a report for a person, JSON (--json) or CSV
+// tables (--csv) for a program.
 //
 // With --server (or THZDRIVE_SERVER) it calls a running thzdrived; several
 // comma-separated addresses are balanced round-robin with retries. Without
@@ -68,6 +71,13 @@ func init() {
 	commands = []command{
 		{"analyze", "spectrum and metrics of a model pulse or a measured trace", runAnalyze},
 		{"calibrate", "absolute field from pulse energy and spot, or from an electro-optic signal", runCalibrate},
+		{"propagate", "the field inside the sample after windows, attenuators and its surface", runPropagate},
+		{"drive", "how hard the field drives a phonon mode: amplitude, displacement, energy", runDrive},
+		{"size", "the field and pulse energy a target mode amplitude needs", runSize},
+		{"heat", "single-pulse and steady-state heating, margin to the transition", runHeat},
+		{"materials", "the embedded material catalogue", runMaterials},
+		{"plan", "the whole chain for a scenario file, stage by stage", runPlan},
+		{"sweep", "a scenario's plan over a grid of one or two parameters, as CSV", runSweep},
 		{"demo", "run the built-in invented scenario (needs no server)", runDemo},
 	}
 }
@@ -78,6 +88,7 @@ type app struct {
 	servers        []string
 	asJSON         bool
 	timeout        time.Duration
+	timeoutSet     bool // --timeout given: a sweep honours it too
 	client         *client.Client
 	closeFn        func()
 }
@@ -92,7 +103,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 	fs.SetOutput(stderr)
 	server := fs.String("server", os.Getenv("THZDRIVE_SERVER"), "thzdrived address(es), comma-separated HOST:PORT; empty runs the service in-process (env THZDRIVE_SERVER)")
 	fs.BoolVar(&a.asJSON, "json", false, "print the response as JSON (proto JSON mapping) instead of a report")
-	fs.DurationVar(&a.timeout, "timeout", 60*time.Second, "deadline of each call")
+	fs.DurationVar(&a.timeout, "timeout", 60*time.Second, "deadline of each call (a sweep has none unless this is given)")
 	fs.Usage = func() { printUsage(stderr, fs) }
 	if err := fs.Parse(args); err != nil {
 		if errors.Is(err, flag.ErrHelp) {
@@ -100,6 +111,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 		}
 		return exitUsage
 	}
+	fs.Visit(func(f *flag.Flag) { a.timeoutSet = a.timeoutSet || f.Name == "timeout" })
 	rest := fs.Args()
 	if len(rest) == 0 {
 		printUsage(stderr, fs)
@@ -156,8 +168,13 @@ func exitCode(stderr io.Writer, err error) int {
 		fmt.Fprintln(stderr, "thzdrive:", err)
 		return exitRefused
 	}
-	fmt.Fprintf(stderr, "thzdrive: %s: %s\n", st.Code(), st.Message())
-	printViolations(stderr, st)
+	if violations(st) > 0 {
+		// The message repeats the violations; list them once, one a line.
+		fmt.Fprintf(stderr, "thzdrive: the service refused the request (%s):\n", st.Code())
+		printViolations(stderr, st)
+	} else {
+		fmt.Fprintf(stderr, "thzdrive: %s: %s\n", st.Code(), st.Message())
+	}
 	if st.Code() == codes.Unavailable || st.Code() == codes.DeadlineExceeded {
 		return exitUnreachable
 	}
@@ -179,7 +196,9 @@ Commands:
 
 Quantities may carry their unit: --peak-field "1.2 MV/cm", --peak-frequency
 "80 cm-1", --energy "2 uJ"; a bare number is taken in the unit the flag's
-help names.
+help names. A whole experiment is a scenario file (YAML or JSON, the API's
+PlanExperimentRequest): 'thzdrive demo --show-scenario' prints one to start
+from, and 'thzdrive help plan' explains its parts.
 
 Global flags:
 `, "help CMD")
