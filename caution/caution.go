@@ -42,32 +42,37 @@ const (
 	HeatingLarge      // a large single-pulse or steady-state rise
 	// Phonon mode, continued.
 	ModeNotDecayed // the mode still rings where the exact solution's padding ends (wrap-around)
+	// Spectroscopy (package tdsfit).
+	ExtractionUnconverged // the optical constants could not be extracted at some frequencies of the band
+	FitPoor               // a dielectric fit misses the data beyond their noise, or leaves a parameter undetermined
 )
 
 var names = map[Code]string{
-	Unspecified:         "UNSPECIFIED",
-	DCOffset:            "DC_OFFSET",
-	NotDecayed:          "NOT_DECAYED",
-	EOOverRotation:      "EO_OVER_ROTATION",
-	DetectorBandLimit:   "DETECTOR_BAND_LIMIT",
-	FieldBeyondTableTop: "FIELD_BEYOND_TABLE_TOP",
-	FieldImplausible:    "FIELD_IMPLAUSIBLE",
-	LowDynamicRange:     "LOW_DYNAMIC_RANGE",
-	Undersampled:        "UNDERSAMPLED",
-	EchoInWindow:        "ECHO_IN_WINDOW",
-	MaterialExtrapolate: "MATERIAL_EXTRAPOLATED",
-	Reststrahlen:        "RESTSTRAHLEN",
-	LindemannWarning:    "LINDEMANN_WARNING",
-	LindemannDamage:     "LINDEMANN_DAMAGE",
-	NonlinearRegime:     "NONLINEAR_REGIME",
-	ModeOutsideBand:     "MODE_OUTSIDE_BAND",
-	TargetUnreachable:   "TARGET_UNREACHABLE",
-	SourceShortfall:     "SOURCE_SHORTFALL",
-	CrossesTransition:   "CROSSES_TRANSITION",
-	SmallMargin:         "SMALL_MARGIN",
-	OpticalDamage:       "OPTICAL_DAMAGE",
-	HeatingLarge:        "HEATING_LARGE",
-	ModeNotDecayed:      "MODE_NOT_DECAYED",
+	Unspecified:           "UNSPECIFIED",
+	DCOffset:              "DC_OFFSET",
+	NotDecayed:            "NOT_DECAYED",
+	EOOverRotation:        "EO_OVER_ROTATION",
+	DetectorBandLimit:     "DETECTOR_BAND_LIMIT",
+	FieldBeyondTableTop:   "FIELD_BEYOND_TABLE_TOP",
+	FieldImplausible:      "FIELD_IMPLAUSIBLE",
+	LowDynamicRange:       "LOW_DYNAMIC_RANGE",
+	Undersampled:          "UNDERSAMPLED",
+	EchoInWindow:          "ECHO_IN_WINDOW",
+	MaterialExtrapolate:   "MATERIAL_EXTRAPOLATED",
+	Reststrahlen:          "RESTSTRAHLEN",
+	LindemannWarning:      "LINDEMANN_WARNING",
+	LindemannDamage:       "LINDEMANN_DAMAGE",
+	NonlinearRegime:       "NONLINEAR_REGIME",
+	ModeOutsideBand:       "MODE_OUTSIDE_BAND",
+	TargetUnreachable:     "TARGET_UNREACHABLE",
+	SourceShortfall:       "SOURCE_SHORTFALL",
+	CrossesTransition:     "CROSSES_TRANSITION",
+	SmallMargin:           "SMALL_MARGIN",
+	OpticalDamage:         "OPTICAL_DAMAGE",
+	HeatingLarge:          "HEATING_LARGE",
+	ModeNotDecayed:        "MODE_NOT_DECAYED",
+	ExtractionUnconverged: "EXTRACTION_UNCONVERGED",
+	FitPoor:               "FIT_POOR",
 }
 
 // String returns the code's stable upper-case name.

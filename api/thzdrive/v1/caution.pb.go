@@ -71,6 +71,11 @@ const (
 	CautionCode_CAUTION_CODE_HEATING_LARGE CautionCode = 21
 	// The mode still rings at the end of the computed window (wrap-around risk).
 	CautionCode_CAUTION_CODE_MODE_NOT_DECAYED CautionCode = 22
+	// The index extraction did not converge at some frequencies.
+	CautionCode_CAUTION_CODE_EXTRACTION_UNCONVERGED CautionCode = 23
+	// A dielectric fit is poor (large reduced chi-square or parameters
+	// undetermined).
+	CautionCode_CAUTION_CODE_FIT_POOR CautionCode = 24
 )
 
 // Enum value maps for CautionCode.
@@ -99,6 +104,8 @@ var (
 		20: "CAUTION_CODE_OPTICAL_DAMAGE",
 		21: "CAUTION_CODE_HEATING_LARGE",
 		22: "CAUTION_CODE_MODE_NOT_DECAYED",
+		23: "CAUTION_CODE_EXTRACTION_UNCONVERGED",
+		24: "CAUTION_CODE_FIT_POOR",
 	}
 	CautionCode_value = map[string]int32{
 		"CAUTION_CODE_UNSPECIFIED":            0,
@@ -124,6 +131,8 @@ var (
 		"CAUTION_CODE_OPTICAL_DAMAGE":         20,
 		"CAUTION_CODE_HEATING_LARGE":          21,
 		"CAUTION_CODE_MODE_NOT_DECAYED":       22,
+		"CAUTION_CODE_EXTRACTION_UNCONVERGED": 23,
+		"CAUTION_CODE_FIT_POOR":               24,
 	}
 )
 
@@ -297,7 +306,7 @@ const file_thzdrive_v1_caution_proto_rawDesc = "" +
 	"\x04code\x18\x01 \x01(\x0e2\x18.thzdrive.v1.CautionCodeR\x04code\x12\x18\n" +
 	"\amessage\x18\x02 \x01(\tR\amessage\x121\n" +
 	"\x06values\x18\x03 \x03(\v2\x19.thzdrive.v1.CautionValueR\x06values\x12\x14\n" +
-	"\x05stage\x18\x04 \x01(\tR\x05stage*\xa4\x06\n" +
+	"\x05stage\x18\x04 \x01(\tR\x05stage*\xe8\x06\n" +
 	"\vCautionCode\x12\x1c\n" +
 	"\x18CAUTION_CODE_UNSPECIFIED\x10\x00\x12\x1a\n" +
 	"\x16CAUTION_CODE_DC_OFFSET\x10\x01\x12\x1c\n" +
@@ -322,7 +331,9 @@ const file_thzdrive_v1_caution_proto_rawDesc = "" +
 	"\x19CAUTION_CODE_SMALL_MARGIN\x10\x13\x12\x1f\n" +
 	"\x1bCAUTION_CODE_OPTICAL_DAMAGE\x10\x14\x12\x1e\n" +
 	"\x1aCAUTION_CODE_HEATING_LARGE\x10\x15\x12!\n" +
-	"\x1dCAUTION_CODE_MODE_NOT_DECAYED\x10\x16B%Z#thzdrive/api/thzdrive/v1;thzdrivev1b\x06proto3"
+	"\x1dCAUTION_CODE_MODE_NOT_DECAYED\x10\x16\x12'\n" +
+	"#CAUTION_CODE_EXTRACTION_UNCONVERGED\x10\x17\x12\x19\n" +
+	"\x15CAUTION_CODE_FIT_POOR\x10\x18B%Z#thzdrive/api/thzdrive/v1;thzdrivev1b\x06proto3"
 
 var (
 	file_thzdrive_v1_caution_proto_rawDescOnce sync.Once
