@@ -43,6 +43,7 @@ func runDemo(a *app, args []string) error {
 	fs := flag.NewFlagSet("demo", flag.ContinueOnError)
 	fs.SetOutput(a.stderr)
 	show := fs.Bool("show-scenario", false, "print the built-in scenario file (YAML) instead of running it")
+	demoPlot := fs.String("plot", "", "also write the plan's figures (PNG and SVG) into DIR")
 	fs.Usage = func() {
 		fmt.Fprintf(fs.Output(), `Usage: thzdrive demo [flags]
 
@@ -74,7 +75,7 @@ Flags:
 		notes = a.stderr // keep standard output valid JSON
 	}
 	fmt.Fprintf(notes, "%s\n\n%s\n\n$ thzdrive plan demo-scenario.yaml\n\n", demoNotice, demoGuide)
-	if err := a.plan(req, "", ""); err != nil {
+	if err := a.plan(req, "", "", *demoPlot); err != nil {
 		return err
 	}
 	fmt.Fprintf(notes, "\n%s\n", demoNext)

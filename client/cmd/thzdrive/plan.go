@@ -3,6 +3,7 @@ package main
 import (
 	"flag"
 	"fmt"
+	"strings"
 
 	thzdrivev1 "thzdrive/api/thzdrive/v1"
 )
@@ -34,6 +35,7 @@ func runPlan(a *app, args []string) error {
 	fs.SetOutput(a.stderr)
 	csvPath := fs.String("csv", "", "write the time traces to FILE as CSV: time (ps), field inside (kV/cm), Q (Å·sqrt(amu)); '-' is standard output")
 	transferPath := fs.String("transfer-csv", "", "write the transmission spectrum to FILE as CSV: frequency (THz), |t|, arg t (rad), absorbed fraction")
+	plotDir := fs.String("plot", "", "also write figures (PNG and SVG) into DIR: the field incident and inside, their spectra with the mode marked, the transmission, and Q(t)")
 	fs.Usage = func() {
 		fmt.Fprintf(fs.Output(), `Usage: thzdrive plan [flags] SCENARIO
 
@@ -64,11 +66,11 @@ Flags:
 	if err != nil {
 		return err
 	}
-	return a.plan(req, *csvPath, *transferPath)
+	return a.plan(req, *csvPath, *transferPath, *plotDir)
 }
 
 // plan runs PlanExperiment and prints its report; the demo uses it too.
-func (a *app) plan(req *thzdrivev1.PlanExperimentRequest, csvPath, transferPath string) error {
+func (a *app) plan(req *thzdrivev1.PlanExperimentRequest, csvPath, transferPath, plotDir string) error {
 	c, err := a.connect()
 	if err != nil {
 		return err
@@ -91,10 +93,49 @@ func (a *app) plan(req *thzdrivev1.PlanExperimentRequest, csvPath, transferPath 
 			return err
 		}
 	}
+	if plotDir != "" {
+		if err := a.plotPlan(plotDir, resp); err != nil {
+			return err
+		}
+	}
 	if a.asJSON {
 		return a.printJSON(resp)
 	}
 	planReport(resp).print(a.reportWriter(csvPath, transferPath))
+	return nil
+}
+
+// plotPlan asks the service for the spectra of the incident field and of
+// the field inside, then writes the plan's figures.
+func (a *app) plotPlan(dir string, resp *thzdrivev1.PlanExperimentResponse) error {
+	c, err := a.connect()
+	if err != nil {
+		return err
+	}
+	ctx, cancel := a.context()
+	defer cancel()
+	f := planFigures{plan: resp}
+	for _, s := range []struct {
+		tr  *thzdrivev1.SampledTrace
+		dst **thzdrivev1.Spectrum
+	}{{resp.GetSource().GetIncident(), &f.incident}, {resp.GetMode().GetFieldInside(), &f.insideS}} {
+		if s.tr == nil {
+			continue
+		}
+		an, err := c.AnalyzePulse(ctx, &thzdrivev1.AnalyzePulseRequest{
+			Waveform:   &thzdrivev1.Waveform{Source: &thzdrivev1.Waveform_Trace{Trace: s.tr}},
+			Processing: &thzdrivev1.Processing{Baseline: thzdrivev1.BaselineRemoval_BASELINE_REMOVAL_NONE},
+		})
+		if err != nil {
+			return err
+		}
+		*s.dst = an.Spectrum
+	}
+	paths, err := writePlanPlots(dir, f)
+	if err != nil {
+		return err
+	}
+	fmt.Fprintf(a.stderr, "figures: %s\n", strings.Join(paths, ", "))
 	return nil
 }
 

@@ -17,6 +17,7 @@ import (
 	"google.golang.org/protobuf/encoding/protojson"
 
 	thzdrivev1 "thzdrive/api/thzdrive/v1"
+	"thzdrive/client"
 	"thzdrive/units"
 )
 
@@ -161,6 +162,7 @@ func runSweep(a *app, args []string) error {
 	var axes multiFlag
 	fs.Var(&axes, "axis", "PATH=START:STOP:COUNT[:log] or PATH=V1,V2,... (once or twice)")
 	csvPath := fs.String("csv", "-", "write the table to FILE; '-' is standard output")
+	plotDir := fs.String("plot", "", "also write figures (PNG and SVG) of the sweep into DIR: a line per quantity for one axis, a colour map for two")
 	fs.Usage = func() {
 		fmt.Fprintf(fs.Output(), `Usage: thzdrive sweep [flags] SCENARIO --axis PATH=... [--axis PATH=...]
 
@@ -247,6 +249,7 @@ Flags:
 		sw.header = append(sw.header, headlineColumns...)
 	}
 	prog := newProgress(a.stderr)
+	var kept []*thzdrivev1.SweepResponse
 	for {
 		p, err := stream.Recv()
 		if errors.Is(err, io.EOF) {
@@ -260,6 +263,9 @@ Flags:
 			prog.done()
 			return err
 		}
+		if *plotDir != "" {
+			kept = append(kept, p)
+		}
 		prog.show(sw.received, p.Total)
 	}
 	prog.done()
@@ -268,6 +274,11 @@ Flags:
 	}
 	if err := sw.flushAll(); err != nil {
 		return err
+	}
+	if *plotDir != "" {
+		if err := a.plotSweep(*plotDir, req, kept); err != nil {
+			return err
+		}
 	}
 	if a.asJSON {
 		return nil
@@ -473,4 +484,36 @@ func isTerminal(w io.Writer) bool {
 	}
 	st, err := f.Stat()
 	return err == nil && st.Mode()&os.ModeCharDevice != 0
+}
+
+// plotSweep writes the sweep's figures; points may arrive in any order.
+func (a *app) plotSweep(dir string, req *thzdrivev1.SweepRequest, points []*thzdrivev1.SweepResponse) error {
+	sort.Slice(points, func(i, j int) bool { return points[i].Index < points[j].Index })
+	names := make([]string, len(req.Axes))
+	values := make([][]float64, len(req.Axes))
+	for i, ax := range req.Axes {
+		names[i] = columnName(ax.Parameter)
+	}
+	if len(req.Axes) == 1 {
+		for _, p := range points {
+			values[0] = append(values[0], p.Coordinates[0])
+		}
+	} else {
+		inner := int(client.GridSize(&thzdrivev1.SweepRequest{Axes: req.Axes[1:]}))
+		if inner == 0 || len(points)%inner != 0 {
+			return fmt.Errorf("plot: %d points do not fill a grid of rows of %d", len(points), inner)
+		}
+		for i := 0; i < len(points); i += inner {
+			values[0] = append(values[0], points[i].Coordinates[0])
+		}
+		for _, p := range points[:inner] {
+			values[1] = append(values[1], p.Coordinates[1])
+		}
+	}
+	paths, err := writeSweepPlots(dir, names, values, points)
+	if err != nil {
+		return err
+	}
+	fmt.Fprintf(a.stderr, "figures: %s\n", strings.Join(paths, ", "))
+	return nil
 }
