@@ -196,8 +196,13 @@ func driveError(prefix string, err error) error {
 		if f, ok := modeFields[me.Field]; ok {
 			return invalid(prefix+"mode."+f, err)
 		}
-		if me.Field == "Options.Depth.ProbeDepthM" {
+		switch me.Field {
+		case "Options.Depth.ProbeDepthM":
 			return invalid(prefix+"probe_depth_nm", err)
+		case "Options.Method":
+			// The method asked for cannot solve this mode (EXACT for a
+			// nonlinear one): the request's method field is at fault.
+			return invalid(prefix+"method", err)
 		}
 		return invalid(prefix+"mode", err)
 	case errors.As(err, &oe):

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"sort"
 
 	"google.golang.org/protobuf/proto"
 
@@ -282,6 +283,16 @@ func resolveDielectric(v *violations, path string, d *thzdrivev1.DielectricModel
 		v.add(path, "%v", err)
 		return nil
 	}
+	// Every number of the model may be finite while its LO frequency is not
+	// representable (a tiny eps_inf, a huge oscillator strength or plasma
+	// frequency): the reststrahlen band that the RESTSTRAHLEN caution
+	// reports would then end at +Inf or NaN. Refuse such a model here.
+	for _, b := range out.ReststrahlenBands() {
+		if math.IsNaN(b.LoHz) || math.IsInf(b.HiHz, 0) || math.IsNaN(b.HiHz) {
+			v.add(path, "the LO frequency that ends the reststrahlen band above %g THz cannot be computed in double precision: eps_inf is too small, or an oscillator strength or the plasma frequency too large", b.LoHz/units.THz)
+			return nil
+		}
+	}
 	return out
 }
 
@@ -302,7 +313,8 @@ func transferToWire(p optics.Propagation) *thzdrivev1.TransferFunction {
 	return out
 }
 
-// ListMaterials returns the embedded catalogue.
+// ListMaterials returns the embedded catalogue, sorted by name as
+// optics.proto promises (the catalogue itself keeps the file's order).
 func (s *Service) ListMaterials(ctx context.Context, req *thzdrivev1.ListMaterialsRequest) (*thzdrivev1.ListMaterialsResponse, error) {
 	out := &thzdrivev1.ListMaterialsResponse{}
 	for _, m := range optics.Catalogue() {
@@ -313,6 +325,7 @@ func (s *Service) ListMaterials(ctx context.Context, req *thzdrivev1.ListMateria
 			NAt_1Thz: real(n), KappaAt_1Thz: imag(n),
 		})
 	}
+	sort.Slice(out.Materials, func(i, j int) bool { return out.Materials[i].Name < out.Materials[j].Name })
 	return out, nil
 }
 
