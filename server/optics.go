@@ -263,9 +263,18 @@ func resolveMedium(v *violations, path string, m *thzdrivev1.Medium) optics.Medi
 	return nil
 }
 
+// maxOscillators bounds the Lorentz terms of one dielectric model: every
+// frequency of every call evaluates them all, and the reststrahlen search
+// costs of the order of their square. Fits of real spectra need a handful.
+const maxOscillators = 64
+
 func resolveDielectric(v *violations, path string, d *thzdrivev1.DielectricModel) optics.Medium {
 	out := optics.Dielectric{EpsInf: d.EpsInf, PlasmaHz: d.PlasmaFrequencyThz * units.THz, ScatteringHz: d.ScatteringRateThz * units.THz}
 	v.positive(path+".eps_inf", d.EpsInf)
+	if len(d.Oscillators) > maxOscillators {
+		v.add(path+".oscillators", "%d oscillators, over the limit of %d per model", len(d.Oscillators), maxOscillators)
+		return nil
+	}
 	for i, o := range d.Oscillators {
 		p := fmt.Sprintf("%s.oscillators[%d]", path, i)
 		v.positive(p+".frequency_thz", o.FrequencyThz)

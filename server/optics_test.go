@@ -316,6 +316,8 @@ func TestPropagateBadRequests(t *testing.T) {
 			ExitMedium: lorentzMedium(0)}}, "sample.exit_medium.dielectric.eps_inf"},
 		{"negative oscillator strength", &thzdrivev1.PropagateRequest{Waveform: wave, Sample: &thzdrivev1.SampleStack{
 			ExitMedium: lorentzMedium(10, &thzdrivev1.LorentzOscillator{FrequencyThz: 2, LinewidthThz: 0.1, DeltaEps: -1})}}, "sample.exit_medium.dielectric.oscillators[0].delta_eps"},
+		{"too many oscillators", &thzdrivev1.PropagateRequest{Waveform: wave, Sample: &thzdrivev1.SampleStack{
+			ExitMedium: lorentzMedium(10, manyOscillators(maxOscillators+1)...)}}, "sample.exit_medium.dielectric.oscillators"},
 		// Fuzzing found these (FuzzSizeFieldWire): finite parameters whose
 		// LO frequency overflows, so RESTSTRAHLEN would report +Inf.
 		{"LO frequency overflows (huge strength)", &thzdrivev1.PropagateRequest{Waveform: wave, Sample: &thzdrivev1.SampleStack{
@@ -420,4 +422,12 @@ func TestListMaterials(t *testing.T) {
 	if si := byName["silicon-hr"]; si != nil && (si.NAt_1Thz != 3.4175 || si.KappaAt_1Thz != 0) {
 		t.Errorf("silicon-hr n(1 THz) = %g + %gi, want 3.4175 (Grischkowsky et al. 1990, from memory)", si.NAt_1Thz, si.KappaAt_1Thz)
 	}
+}
+
+func manyOscillators(n int) []*thzdrivev1.LorentzOscillator {
+	out := make([]*thzdrivev1.LorentzOscillator, n)
+	for i := range out {
+		out[i] = &thzdrivev1.LorentzOscillator{FrequencyThz: 1 + 0.1*float64(i), LinewidthThz: 0.05, DeltaEps: 0.01}
+	}
+	return out
 }
