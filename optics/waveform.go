@@ -8,13 +8,16 @@ import (
 	"thzdrive/pulse"
 )
 
-// CautionBandDB is how far below its peak the incident power spectrum may
-// fall and still count as "where the pulse is": material ranges and
-// reststrahlen bands are checked only over the band within this many dB,
-// so that a catalogue entry valid to a few THz raises no caution merely
-// because the sampling reaches a Nyquist frequency of tens of THz (common
-// practice: 40 dB is below the dynamic range of most THz spectra).
-const CautionBandDB = 40
+// CautionEnergyFraction is the share of the pulse energy a caution about
+// the band may ignore: material ranges and reststrahlen bands are checked
+// over the band that holds all but this fraction of the incident energy
+// (half of it cut at each end). A catalogue entry valid to a few THz then
+// raises no caution merely because the sampling reaches a Nyquist frequency
+// of tens of THz, or because the spectrum's far tails carry a trace of
+// energy there; it does when a percent of the pulse's energy meets
+// extrapolated data (common practice: 1 % is below the uncertainty of most
+// absolute THz calibrations).
+const CautionEnergyFraction = 0.01
 
 // Propagation is a waveform carried through an optical train to its target.
 type Propagation struct {
@@ -40,8 +43,8 @@ type Propagation struct {
 	// Σ A(f)|E(f)|² / Σ |E(f)|² (Parseval: the spectral weights are the
 	// energy per frequency bin).
 	AbsorbedFraction float64
-	// Cautions from the train (see Evaluator.Cautions), over the band within
-	// CautionBandDB of the incident spectrum's peak.
+	// Cautions from the train (see Evaluator.Cautions), over the band that
+	// holds all but CautionEnergyFraction of the incident energy.
 	Cautions []caution.Caution
 }
 
@@ -99,24 +102,34 @@ func Propagate(ev *Evaluator, in pulse.Trace, padTo int) (Propagation, error) {
 		out.TargetPeakVPerM = math.Max(out.TargetPeakVPerM, math.Abs(x))
 	}
 
-	// The band that carries the pulse, and its power-weighted centre as the
-	// reference frequency of the echo delays.
+	// The band that carries the pulse (all but CautionEnergyFraction of its
+	// energy), and its power-weighted centre as the reference frequency of
+	// the echo delays.
 	lo, hi := -1, -1
-	var centre, weight float64
-	floor := peakPower * math.Pow(10, -CautionBandDB/10)
-	for k := 1; k < len(power); k++ {
-		if p := power[k]; p >= floor && p > 0 {
-			if lo < 0 {
+	var centre float64
+	if den > 0 {
+		cut := CautionEnergyFraction / 2 * den
+		var below float64
+		for k := 1; k < len(power); k++ {
+			below += power[k]
+			if below > cut && lo < 0 {
 				lo = k
 			}
-			hi = k
-			centre += out.FreqHz[k] * p
-			weight += p
+			centre += out.FreqHz[k] * power[k]
+		}
+		var above float64
+		for k := len(power) - 1; k >= 1; k-- {
+			above += power[k]
+			if above > cut {
+				hi = k
+				break
+			}
 		}
 	}
-	if lo < 0 || weight == 0 {
+	if lo < 0 || hi < lo {
 		return out, nil
 	}
+	weight := den - power[0]
 	windowAfterS := in.StartS + float64(n)*in.StepS - in.TimeS(peakIdx)
 	cs, err := ev.Cautions(out.FreqHz[lo:hi+1], centre/weight, windowAfterS)
 	if err != nil {

@@ -8,6 +8,8 @@ import (
 	"sort"
 	"testing"
 
+	"gonum.org/v1/gonum/stat/distuv"
+
 	thzdrivev1 "thzdrive/api/thzdrive/v1"
 	"thzdrive/units"
 )
@@ -147,20 +149,21 @@ func TestPropagateSiliconWindow(t *testing.T) {
 
 	// Cautions. The padded window runs 60 ps past the incident peak, more
 	// than the first echo's 2nd/c = 22.80 ps (physics.md §4), which the
-	// first-pass calculation drops: ECHO_IN_WINDOW. The central lobe's
-	// power ∝ f⁴·exp(-(2πfτ)²) is 40 dB below its peak already at 0.05 THz
-	// (derived), below the catalogue's 0.1 THz: MATERIAL_EXTRAPOLATED.
+	// first-pass calculation drops: ECHO_IN_WINDOW. Material ranges are
+	// checked over the band holding 99 % of the energy (see
+	// centralLobeBandTHz); for this 1 THz central lobe it lies inside
+	// silicon-hr's 0.1–3 THz, so no MATERIAL_EXTRAPOLATED.
 	echo := findCaution(resp.Cautions, thzdrivev1.CautionCode_CAUTION_CODE_ECHO_IN_WINDOW)
 	if echo == nil {
 		t.Errorf("no ECHO_IN_WINDOW caution: %v", resp.Cautions)
 	} else if d := wireValue(t, echo, "echo_delay_ps"); math.Abs(d-22.80) > 0.005 {
 		t.Errorf("echo delay %.4f ps, want 2nd/c = 22.80 ps (physics.md §4)", d)
 	}
-	ext := findCaution(resp.Cautions, thzdrivev1.CautionCode_CAUTION_CODE_MATERIAL_EXTRAPOLATED)
-	if ext == nil {
-		t.Errorf("no MATERIAL_EXTRAPOLATED caution: %v", resp.Cautions)
-	} else if lo, hi := wireValue(t, ext, "valid_min_thz"), wireValue(t, ext, "valid_max_thz"); lo != 0.1 || hi != 3 {
-		t.Errorf("caution names the valid range %g–%g THz, want silicon-hr's 0.1–3 THz (materials.json)", lo, hi)
+	if lo, hi := centralLobeBandTHz(1); lo < 0.1 || hi > 3 {
+		t.Fatalf("test premise: band %.3f–%.3f THz should lie inside 0.1–3 THz", lo, hi)
+	}
+	if ext := findCaution(resp.Cautions, thzdrivev1.CautionCode_CAUTION_CODE_MATERIAL_EXTRAPOLATED); ext != nil {
+		t.Errorf("MATERIAL_EXTRAPOLATED for a pulse whose energy lies inside the data's range: %v", ext)
 	}
 	// Defaults echoed: padding twice the 8000 samples, target the exit medium.
 	if resp.Resolved.PadToSamples != 16000 || resp.Resolved.GetTarget().GetLayer() != -1 ||
@@ -221,11 +224,14 @@ func TestPropagateBulkFresnel(t *testing.T) {
 // ε∞ = 10.89, Δε = 2.00, W_TO = 273.3 cm⁻¹; the linewidth 0.1 THz is an
 // invented input). The field just inside is 2/(1+ñ(f)) times the incident
 // one with ñ = sqrt(ε(f)) on the κ >= 0 branch (Fresnel, computed here with
-// math/cmplx; 1e-12). A pulse whose -40 dB band covers the band from TO to
-// LO (8.19–8.91 THz) raises RESTSTRAHLEN; the caution names W_TO (exact
-// conversion, 1e-9) and W_LO = 297.3 cm⁻¹ (Lyddane–Sachs–Teller and Hass &
-// Henvis, within physics.md's 0.1 %). A 0.5 THz pulse, 40 dB down by
-// 1.7 THz (derived from its f²·exp(-(f/f_p)²) power spectrum), does not.
+// math/cmplx; 1e-12). A pulse whose 99 %-energy band covers the band from
+// TO to LO (8.19–8.91 THz) raises RESTSTRAHLEN: a 6 THz single cycle, whose
+// power ∝ w²·exp(-w²τ²) makes 2w²τ² chi-squared with 3 degrees of freedom
+// (derived), holds 99 % of its energy between 1.1 and 15 THz (0.5 % and
+// 99.5 % quantiles 0.072 and 12.84, from memory of the chi-squared table).
+// The caution names W_TO (exact conversion, 1e-9) and W_LO = 297.3 cm⁻¹
+// (Lyddane–Sachs–Teller and Hass & Henvis, within physics.md's 0.1 %). A
+// 0.5 THz pulse, whose band ends at 1.3 THz, does not.
 func TestPropagateReststrahlen(t *testing.T) {
 	conn := startServer(t, Config{})
 	c := thzdrivev1.NewPumpPlannerClient(conn)
@@ -430,4 +436,50 @@ func manyOscillators(n int) []*thzdrivev1.LorentzOscillator {
 		out[i] = &thzdrivev1.LorentzOscillator{FrequencyThz: 1 + 0.1*float64(i), LinewidthThz: 0.05, DeltaEps: 0.01}
 	}
 	return out
+}
+
+// centralLobeBandTHz is the band holding all but 1 % of the energy of a
+// central-lobe (second-derivative Gaussian) pulse peaking at fPeakTHz, cut
+// 0.5 % at each end. Its power spectrum ∝ w⁴·exp(-w²τ²) (physics.md §2)
+// makes x = w²τ² a Gamma(5/2) variable, i.e. 2x is chi-squared with 5
+// degrees of freedom (derived), whose quantiles come from gonum's distuv;
+// the peak is at wτ = sqrt(2).
+func centralLobeBandTHz(fPeakTHz float64) (lo, hi float64) {
+	chi := distuv.ChiSquared{K: 5}
+	f := func(p float64) float64 { return fPeakTHz * math.Sqrt(chi.Quantile(p)/2) / math.Sqrt2 }
+	return f(0.005), f(0.995)
+}
+
+// TestPropagateMaterialRange: a 2 THz central lobe carries more than 0.5 %
+// of its energy above silicon-hr's 3 THz (band from centralLobeBandTHz), so
+// MATERIAL_EXTRAPOLATED names the data's range and the pulse's band.
+func TestPropagateMaterialRange(t *testing.T) {
+	conn := startServer(t, Config{})
+	c := thzdrivev1.NewPumpPlannerClient(conn)
+	lo, hi := centralLobeBandTHz(2)
+	if hi <= 3 {
+		t.Fatalf("test premise: band top %.3f THz should pass 3 THz", hi)
+	}
+	resp, err := c.Propagate(ctxTimeout(t), &thzdrivev1.PropagateRequest{
+		Waveform: modelWave(thzdrivev1.PulseShape_PULSE_SHAPE_CENTRAL_LOBE, 2, 100, 5, 20),
+		Train:    []*thzdrivev1.TrainElement{slabElement(materialMedium("silicon-hr"), 1000, true)},
+		Sample:   &thzdrivev1.SampleStack{},
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	ext := findCaution(resp.Cautions, thzdrivev1.CautionCode_CAUTION_CODE_MATERIAL_EXTRAPOLATED)
+	if ext == nil {
+		t.Fatalf("no MATERIAL_EXTRAPOLATED caution: %v", resp.Cautions)
+	}
+	if vlo, vhi := wireValue(t, ext, "valid_min_thz"), wireValue(t, ext, "valid_max_thz"); vlo != 0.1 || vhi != 3 {
+		t.Errorf("caution names the valid range %g–%g THz, want silicon-hr's 0.1–3 THz (materials.json)", vlo, vhi)
+	}
+	bin := resp.Transfer.FrequencyThz[1]
+	if g := wireValue(t, ext, "grid_max_thz"); math.Abs(g-hi) > 2*bin {
+		t.Errorf("band top %.4f THz, want %.4f within 2 bins (%.3f THz)", g, hi, bin)
+	}
+	if g := wireValue(t, ext, "grid_min_thz"); math.Abs(g-lo) > 2*bin {
+		t.Errorf("band bottom %.4f THz, want %.4f within 2 bins", g, lo)
+	}
 }
