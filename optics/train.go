@@ -420,7 +420,7 @@ func (x Extrapolation) Caution() caution.Caution {
 		what = fmt.Sprintf("the data of material %q", x.Material)
 	}
 	return caution.New(caution.MaterialExtrapolate,
-		fmt.Sprintf("%s: %s cover %.3g to %.3g THz only, but the frequency grid spans %.3g to %.3g THz; outside that range the index is held at the nearest tabulated value, or a model is used beyond its stated validity",
+		fmt.Sprintf("%s: %s cover %.3g to %.3g THz only, but the band checked (where the pulse carries its energy) spans %.3g to %.3g THz; outside that range the index is held at the nearest tabulated value, or a model is used beyond its stated validity",
 			describe(x.Field, x.Name), what, x.MinHz/units.THz, x.MaxHz/units.THz, x.LoHz/units.THz, x.HiHz/units.THz),
 		caution.V("valid_min_thz", x.MinHz/units.THz),
 		caution.V("valid_max_thz", x.MaxHz/units.THz),
