@@ -2,6 +2,8 @@ package server
 
 import (
 	"context"
+	"io"
+	"log/slog"
 	"crypto/ecdsa"
 	"crypto/elliptic"
 	"crypto/rand"
@@ -148,7 +150,7 @@ func TestTLSAndMutualTLS(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		srv := New(Config{ServerOptions: []grpc.ServerOption{grpc.Creds(credentials.NewTLS(tc))}})
+		srv := New(Config{Logger: slog.New(slog.NewTextHandler(io.Discard, nil)), ServerOptions: []grpc.ServerOption{grpc.Creds(credentials.NewTLS(tc))}})
 		go func() { _ = srv.GRPC.Serve(lis) }()
 		call := func(creds credentials.TransportCredentials) error {
 			conn, err := grpc.NewClient(lis.Addr().String(), grpc.WithTransportCredentials(creds))
