@@ -407,3 +407,25 @@ func TestDrainOnSIGTERM(t *testing.T) {
 	}
 	t.Logf("drain: %d calls completed, %d refused as UNAVAILABLE, %d lost", ok.Load(), unavailable.Load(), lost.Load())
 }
+
+// Unary calls through the client's round-robin balancer keep succeeding
+// when a replica dies: the balancer drops it and gRPC's retry policy
+// (client.ServiceConfig) repeats a call that failed UNAVAILABLE.
+func TestUnaryFailover(t *testing.T) {
+	a, b := startReplica(t, Config{}), startReplica(t, Config{})
+	c, err := client.Dial([]string{a.addr, b.addr})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer c.Close()
+	ctx := ctxTimeout(t)
+	req := &thzdrivev1.AnalyzePulseRequest{Waveform: singleCycle(1, 100)}
+	for i := range 40 {
+		if i == 10 {
+			a.srv.GRPC.Stop()
+		}
+		if _, err := c.AnalyzePulse(ctx, req); err != nil {
+			t.Fatalf("call %d (replica killed before call 10): %v", i, err)
+		}
+	}
+}
