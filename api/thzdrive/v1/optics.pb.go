@@ -1075,7 +1075,9 @@ type TransferFunction struct {
 	Amplitude []float64 `protobuf:"fixed64,2,rep,packed,name=amplitude,proto3" json:"amplitude,omitempty"`
 	// arg t(f), rad, relative to free propagation.
 	PhaseRad []float64 `protobuf:"fixed64,3,rep,packed,name=phase_rad,json=phaseRad,proto3" json:"phase_rad,omitempty"`
-	// Fraction of the incident power absorbed in the target layer.
+	// Fraction of the incident power absorbed in the target layer; for the
+	// exit medium, the fraction entering it (a thick absorbing sample takes
+	// it all; a lossless one only passes it on).
 	AbsorbedFraction []float64 `protobuf:"fixed64,4,rep,packed,name=absorbed_fraction,json=absorbedFraction,proto3" json:"absorbed_fraction,omitempty"`
 	unknownFields    protoimpl.UnknownFields
 	sizeCache        protoimpl.SizeCache

@@ -417,7 +417,7 @@ func (x *ModelPulse) GetSpanPs() float64 {
 // SampledTrace is a measured (or computed) field trace. Give either a
 // uniform grid (start_ps and step_fs) or explicit, strictly increasing
 // time_ps, one per field value; non-uniform times are resampled to a uniform
-// grid by linear interpolation at their median spacing.
+// grid at their median spacing by a natural cubic spline.
 type SampledTrace struct {
 	state protoimpl.MessageState `protogen:"open.v1"`
 	// Time of the first sample, ps.

@@ -24,7 +24,7 @@ var File_thzdrive_v1_service_proto protoreflect.FileDescriptor
 
 const file_thzdrive_v1_service_proto_rawDesc = "" +
 	"\n" +
-	"\x19thzdrive/v1/service.proto\x12\vthzdrive.v1\x1a\x16thzdrive/v1/mode.proto\x1a\x18thzdrive/v1/optics.proto\x1a\x16thzdrive/v1/plan.proto\x1a\x17thzdrive/v1/pulse.proto\x1a\x19thzdrive/v1/thermal.proto2\xf4\x05\n" +
+	"\x19thzdrive/v1/service.proto\x12\vthzdrive.v1\x1a\x19thzdrive/v1/extract.proto\x1a\x16thzdrive/v1/mode.proto\x1a\x18thzdrive/v1/optics.proto\x1a\x16thzdrive/v1/plan.proto\x1a\x17thzdrive/v1/pulse.proto\x1a\x19thzdrive/v1/thermal.proto2\x91\b\n" +
 	"\vPumpPlanner\x12S\n" +
 	"\fAnalyzePulse\x12 .thzdrive.v1.AnalyzePulseRequest\x1a!.thzdrive.v1.AnalyzePulseResponse\x12Y\n" +
 	"\x0eCalibrateField\x12\".thzdrive.v1.CalibrateFieldRequest\x1a#.thzdrive.v1.CalibrateFieldResponse\x12J\n" +
@@ -34,27 +34,36 @@ const file_thzdrive_v1_service_proto_rawDesc = "" +
 	"\x0ePlanExperiment\x12\".thzdrive.v1.PlanExperimentRequest\x1a#.thzdrive.v1.PlanExperimentResponse\x12@\n" +
 	"\x05Sweep\x12\x19.thzdrive.v1.SweepRequest\x1a\x1a.thzdrive.v1.SweepResponse0\x01\x12V\n" +
 	"\rListMaterials\x12!.thzdrive.v1.ListMaterialsRequest\x1a\".thzdrive.v1.ListMaterialsResponse\x12\\\n" +
-	"\x0fEstimateHeating\x12#.thzdrive.v1.EstimateHeatingRequest\x1a$.thzdrive.v1.EstimateHeatingResponseB%Z#thzdrive/api/thzdrive/v1;thzdrivev1b\x06proto3"
+	"\x0fEstimateHeating\x12#.thzdrive.v1.EstimateHeatingRequest\x1a$.thzdrive.v1.EstimateHeatingResponse\x12V\n" +
+	"\rExtractMedium\x12!.thzdrive.v1.ExtractMediumRequest\x1a\".thzdrive.v1.ExtractMediumResponse\x12e\n" +
+	"\x12FitDielectricModel\x12&.thzdrive.v1.FitDielectricModelRequest\x1a'.thzdrive.v1.FitDielectricModelResponse\x12\\\n" +
+	"\x0fCorrectDetector\x12#.thzdrive.v1.CorrectDetectorRequest\x1a$.thzdrive.v1.CorrectDetectorResponseB%Z#thzdrive/api/thzdrive/v1;thzdrivev1b\x06proto3"
 
 var file_thzdrive_v1_service_proto_goTypes = []any{
-	(*AnalyzePulseRequest)(nil),     // 0: thzdrive.v1.AnalyzePulseRequest
-	(*CalibrateFieldRequest)(nil),   // 1: thzdrive.v1.CalibrateFieldRequest
-	(*PropagateRequest)(nil),        // 2: thzdrive.v1.PropagateRequest
-	(*DriveModeRequest)(nil),        // 3: thzdrive.v1.DriveModeRequest
-	(*SizeFieldRequest)(nil),        // 4: thzdrive.v1.SizeFieldRequest
-	(*PlanExperimentRequest)(nil),   // 5: thzdrive.v1.PlanExperimentRequest
-	(*SweepRequest)(nil),            // 6: thzdrive.v1.SweepRequest
-	(*ListMaterialsRequest)(nil),    // 7: thzdrive.v1.ListMaterialsRequest
-	(*EstimateHeatingRequest)(nil),  // 8: thzdrive.v1.EstimateHeatingRequest
-	(*AnalyzePulseResponse)(nil),    // 9: thzdrive.v1.AnalyzePulseResponse
-	(*CalibrateFieldResponse)(nil),  // 10: thzdrive.v1.CalibrateFieldResponse
-	(*PropagateResponse)(nil),       // 11: thzdrive.v1.PropagateResponse
-	(*DriveModeResponse)(nil),       // 12: thzdrive.v1.DriveModeResponse
-	(*SizeFieldResponse)(nil),       // 13: thzdrive.v1.SizeFieldResponse
-	(*PlanExperimentResponse)(nil),  // 14: thzdrive.v1.PlanExperimentResponse
-	(*SweepResponse)(nil),           // 15: thzdrive.v1.SweepResponse
-	(*ListMaterialsResponse)(nil),   // 16: thzdrive.v1.ListMaterialsResponse
-	(*EstimateHeatingResponse)(nil), // 17: thzdrive.v1.EstimateHeatingResponse
+	(*AnalyzePulseRequest)(nil),        // 0: thzdrive.v1.AnalyzePulseRequest
+	(*CalibrateFieldRequest)(nil),      // 1: thzdrive.v1.CalibrateFieldRequest
+	(*PropagateRequest)(nil),           // 2: thzdrive.v1.PropagateRequest
+	(*DriveModeRequest)(nil),           // 3: thzdrive.v1.DriveModeRequest
+	(*SizeFieldRequest)(nil),           // 4: thzdrive.v1.SizeFieldRequest
+	(*PlanExperimentRequest)(nil),      // 5: thzdrive.v1.PlanExperimentRequest
+	(*SweepRequest)(nil),               // 6: thzdrive.v1.SweepRequest
+	(*ListMaterialsRequest)(nil),       // 7: thzdrive.v1.ListMaterialsRequest
+	(*EstimateHeatingRequest)(nil),     // 8: thzdrive.v1.EstimateHeatingRequest
+	(*ExtractMediumRequest)(nil),       // 9: thzdrive.v1.ExtractMediumRequest
+	(*FitDielectricModelRequest)(nil),  // 10: thzdrive.v1.FitDielectricModelRequest
+	(*CorrectDetectorRequest)(nil),     // 11: thzdrive.v1.CorrectDetectorRequest
+	(*AnalyzePulseResponse)(nil),       // 12: thzdrive.v1.AnalyzePulseResponse
+	(*CalibrateFieldResponse)(nil),     // 13: thzdrive.v1.CalibrateFieldResponse
+	(*PropagateResponse)(nil),          // 14: thzdrive.v1.PropagateResponse
+	(*DriveModeResponse)(nil),          // 15: thzdrive.v1.DriveModeResponse
+	(*SizeFieldResponse)(nil),          // 16: thzdrive.v1.SizeFieldResponse
+	(*PlanExperimentResponse)(nil),     // 17: thzdrive.v1.PlanExperimentResponse
+	(*SweepResponse)(nil),              // 18: thzdrive.v1.SweepResponse
+	(*ListMaterialsResponse)(nil),      // 19: thzdrive.v1.ListMaterialsResponse
+	(*EstimateHeatingResponse)(nil),    // 20: thzdrive.v1.EstimateHeatingResponse
+	(*ExtractMediumResponse)(nil),      // 21: thzdrive.v1.ExtractMediumResponse
+	(*FitDielectricModelResponse)(nil), // 22: thzdrive.v1.FitDielectricModelResponse
+	(*CorrectDetectorResponse)(nil),    // 23: thzdrive.v1.CorrectDetectorResponse
 }
 var file_thzdrive_v1_service_proto_depIdxs = []int32{
 	0,  // 0: thzdrive.v1.PumpPlanner.AnalyzePulse:input_type -> thzdrive.v1.AnalyzePulseRequest
@@ -66,17 +75,23 @@ var file_thzdrive_v1_service_proto_depIdxs = []int32{
 	6,  // 6: thzdrive.v1.PumpPlanner.Sweep:input_type -> thzdrive.v1.SweepRequest
 	7,  // 7: thzdrive.v1.PumpPlanner.ListMaterials:input_type -> thzdrive.v1.ListMaterialsRequest
 	8,  // 8: thzdrive.v1.PumpPlanner.EstimateHeating:input_type -> thzdrive.v1.EstimateHeatingRequest
-	9,  // 9: thzdrive.v1.PumpPlanner.AnalyzePulse:output_type -> thzdrive.v1.AnalyzePulseResponse
-	10, // 10: thzdrive.v1.PumpPlanner.CalibrateField:output_type -> thzdrive.v1.CalibrateFieldResponse
-	11, // 11: thzdrive.v1.PumpPlanner.Propagate:output_type -> thzdrive.v1.PropagateResponse
-	12, // 12: thzdrive.v1.PumpPlanner.DriveMode:output_type -> thzdrive.v1.DriveModeResponse
-	13, // 13: thzdrive.v1.PumpPlanner.SizeField:output_type -> thzdrive.v1.SizeFieldResponse
-	14, // 14: thzdrive.v1.PumpPlanner.PlanExperiment:output_type -> thzdrive.v1.PlanExperimentResponse
-	15, // 15: thzdrive.v1.PumpPlanner.Sweep:output_type -> thzdrive.v1.SweepResponse
-	16, // 16: thzdrive.v1.PumpPlanner.ListMaterials:output_type -> thzdrive.v1.ListMaterialsResponse
-	17, // 17: thzdrive.v1.PumpPlanner.EstimateHeating:output_type -> thzdrive.v1.EstimateHeatingResponse
-	9,  // [9:18] is the sub-list for method output_type
-	0,  // [0:9] is the sub-list for method input_type
+	9,  // 9: thzdrive.v1.PumpPlanner.ExtractMedium:input_type -> thzdrive.v1.ExtractMediumRequest
+	10, // 10: thzdrive.v1.PumpPlanner.FitDielectricModel:input_type -> thzdrive.v1.FitDielectricModelRequest
+	11, // 11: thzdrive.v1.PumpPlanner.CorrectDetector:input_type -> thzdrive.v1.CorrectDetectorRequest
+	12, // 12: thzdrive.v1.PumpPlanner.AnalyzePulse:output_type -> thzdrive.v1.AnalyzePulseResponse
+	13, // 13: thzdrive.v1.PumpPlanner.CalibrateField:output_type -> thzdrive.v1.CalibrateFieldResponse
+	14, // 14: thzdrive.v1.PumpPlanner.Propagate:output_type -> thzdrive.v1.PropagateResponse
+	15, // 15: thzdrive.v1.PumpPlanner.DriveMode:output_type -> thzdrive.v1.DriveModeResponse
+	16, // 16: thzdrive.v1.PumpPlanner.SizeField:output_type -> thzdrive.v1.SizeFieldResponse
+	17, // 17: thzdrive.v1.PumpPlanner.PlanExperiment:output_type -> thzdrive.v1.PlanExperimentResponse
+	18, // 18: thzdrive.v1.PumpPlanner.Sweep:output_type -> thzdrive.v1.SweepResponse
+	19, // 19: thzdrive.v1.PumpPlanner.ListMaterials:output_type -> thzdrive.v1.ListMaterialsResponse
+	20, // 20: thzdrive.v1.PumpPlanner.EstimateHeating:output_type -> thzdrive.v1.EstimateHeatingResponse
+	21, // 21: thzdrive.v1.PumpPlanner.ExtractMedium:output_type -> thzdrive.v1.ExtractMediumResponse
+	22, // 22: thzdrive.v1.PumpPlanner.FitDielectricModel:output_type -> thzdrive.v1.FitDielectricModelResponse
+	23, // 23: thzdrive.v1.PumpPlanner.CorrectDetector:output_type -> thzdrive.v1.CorrectDetectorResponse
+	12, // [12:24] is the sub-list for method output_type
+	0,  // [0:12] is the sub-list for method input_type
 	0,  // [0:0] is the sub-list for extension type_name
 	0,  // [0:0] is the sub-list for extension extendee
 	0,  // [0:0] is the sub-list for field type_name
@@ -87,6 +102,7 @@ func file_thzdrive_v1_service_proto_init() {
 	if File_thzdrive_v1_service_proto != nil {
 		return
 	}
+	file_thzdrive_v1_extract_proto_init()
 	file_thzdrive_v1_mode_proto_init()
 	file_thzdrive_v1_optics_proto_init()
 	file_thzdrive_v1_plan_proto_init()

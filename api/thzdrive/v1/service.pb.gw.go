@@ -295,6 +295,87 @@ func local_request_PumpPlanner_EstimateHeating_0(ctx context.Context, marshaler 
 	return msg, metadata, err
 }
 
+func request_PumpPlanner_ExtractMedium_0(ctx context.Context, marshaler runtime.Marshaler, client PumpPlannerClient, req *http.Request, pathParams map[string]string) (proto.Message, runtime.ServerMetadata, error) {
+	var (
+		protoReq ExtractMediumRequest
+		metadata runtime.ServerMetadata
+	)
+	if err := marshaler.NewDecoder(req.Body).Decode(&protoReq); err != nil && !errors.Is(err, io.EOF) {
+		return nil, metadata, status.Errorf(codes.InvalidArgument, "%v", err)
+	}
+	if req.Body != nil {
+		_, _ = io.Copy(io.Discard, req.Body)
+	}
+	msg, err := client.ExtractMedium(ctx, &protoReq, grpc.Header(&metadata.HeaderMD), grpc.Trailer(&metadata.TrailerMD))
+	return msg, metadata, err
+}
+
+func local_request_PumpPlanner_ExtractMedium_0(ctx context.Context, marshaler runtime.Marshaler, server PumpPlannerServer, req *http.Request, pathParams map[string]string) (proto.Message, runtime.ServerMetadata, error) {
+	var (
+		protoReq ExtractMediumRequest
+		metadata runtime.ServerMetadata
+	)
+	if err := marshaler.NewDecoder(req.Body).Decode(&protoReq); err != nil && !errors.Is(err, io.EOF) {
+		return nil, metadata, status.Errorf(codes.InvalidArgument, "%v", err)
+	}
+	msg, err := server.ExtractMedium(ctx, &protoReq)
+	return msg, metadata, err
+}
+
+func request_PumpPlanner_FitDielectricModel_0(ctx context.Context, marshaler runtime.Marshaler, client PumpPlannerClient, req *http.Request, pathParams map[string]string) (proto.Message, runtime.ServerMetadata, error) {
+	var (
+		protoReq FitDielectricModelRequest
+		metadata runtime.ServerMetadata
+	)
+	if err := marshaler.NewDecoder(req.Body).Decode(&protoReq); err != nil && !errors.Is(err, io.EOF) {
+		return nil, metadata, status.Errorf(codes.InvalidArgument, "%v", err)
+	}
+	if req.Body != nil {
+		_, _ = io.Copy(io.Discard, req.Body)
+	}
+	msg, err := client.FitDielectricModel(ctx, &protoReq, grpc.Header(&metadata.HeaderMD), grpc.Trailer(&metadata.TrailerMD))
+	return msg, metadata, err
+}
+
+func local_request_PumpPlanner_FitDielectricModel_0(ctx context.Context, marshaler runtime.Marshaler, server PumpPlannerServer, req *http.Request, pathParams map[string]string) (proto.Message, runtime.ServerMetadata, error) {
+	var (
+		protoReq FitDielectricModelRequest
+		metadata runtime.ServerMetadata
+	)
+	if err := marshaler.NewDecoder(req.Body).Decode(&protoReq); err != nil && !errors.Is(err, io.EOF) {
+		return nil, metadata, status.Errorf(codes.InvalidArgument, "%v", err)
+	}
+	msg, err := server.FitDielectricModel(ctx, &protoReq)
+	return msg, metadata, err
+}
+
+func request_PumpPlanner_CorrectDetector_0(ctx context.Context, marshaler runtime.Marshaler, client PumpPlannerClient, req *http.Request, pathParams map[string]string) (proto.Message, runtime.ServerMetadata, error) {
+	var (
+		protoReq CorrectDetectorRequest
+		metadata runtime.ServerMetadata
+	)
+	if err := marshaler.NewDecoder(req.Body).Decode(&protoReq); err != nil && !errors.Is(err, io.EOF) {
+		return nil, metadata, status.Errorf(codes.InvalidArgument, "%v", err)
+	}
+	if req.Body != nil {
+		_, _ = io.Copy(io.Discard, req.Body)
+	}
+	msg, err := client.CorrectDetector(ctx, &protoReq, grpc.Header(&metadata.HeaderMD), grpc.Trailer(&metadata.TrailerMD))
+	return msg, metadata, err
+}
+
+func local_request_PumpPlanner_CorrectDetector_0(ctx context.Context, marshaler runtime.Marshaler, server PumpPlannerServer, req *http.Request, pathParams map[string]string) (proto.Message, runtime.ServerMetadata, error) {
+	var (
+		protoReq CorrectDetectorRequest
+		metadata runtime.ServerMetadata
+	)
+	if err := marshaler.NewDecoder(req.Body).Decode(&protoReq); err != nil && !errors.Is(err, io.EOF) {
+		return nil, metadata, status.Errorf(codes.InvalidArgument, "%v", err)
+	}
+	msg, err := server.CorrectDetector(ctx, &protoReq)
+	return msg, metadata, err
+}
+
 // RegisterPumpPlannerHandlerServer registers the http handlers for service PumpPlanner to "mux".
 // UnaryRPC     :call PumpPlannerServer directly.
 // StreamingRPC :currently unsupported pending https://github.com/grpc/grpc-go/issues/906.
@@ -487,6 +568,66 @@ func RegisterPumpPlannerHandlerServer(ctx context.Context, mux *runtime.ServeMux
 			return
 		}
 		forward_PumpPlanner_EstimateHeating_0(annotatedContext, mux, outboundMarshaler, w, req, resp, mux.GetForwardResponseOptions()...)
+	})
+	mux.Handle(http.MethodPost, pattern_PumpPlanner_ExtractMedium_0, func(w http.ResponseWriter, req *http.Request, pathParams map[string]string) {
+		ctx, cancel := context.WithCancel(req.Context())
+		defer cancel()
+		var stream runtime.ServerTransportStream
+		ctx = grpc.NewContextWithServerTransportStream(ctx, &stream)
+		inboundMarshaler, outboundMarshaler := runtime.MarshalerForRequest(mux, req)
+		annotatedContext, err := runtime.AnnotateIncomingContext(ctx, mux, req, "/thzdrive.v1.PumpPlanner/ExtractMedium", runtime.WithHTTPPathPattern("/v1/medium:extract"))
+		if err != nil {
+			runtime.HTTPError(ctx, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		resp, md, err := local_request_PumpPlanner_ExtractMedium_0(annotatedContext, inboundMarshaler, server, req, pathParams)
+		md.HeaderMD, md.TrailerMD = metadata.Join(md.HeaderMD, stream.Header()), metadata.Join(md.TrailerMD, stream.Trailer())
+		annotatedContext = runtime.NewServerMetadataContext(annotatedContext, md)
+		if err != nil {
+			runtime.HTTPError(annotatedContext, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		forward_PumpPlanner_ExtractMedium_0(annotatedContext, mux, outboundMarshaler, w, req, resp, mux.GetForwardResponseOptions()...)
+	})
+	mux.Handle(http.MethodPost, pattern_PumpPlanner_FitDielectricModel_0, func(w http.ResponseWriter, req *http.Request, pathParams map[string]string) {
+		ctx, cancel := context.WithCancel(req.Context())
+		defer cancel()
+		var stream runtime.ServerTransportStream
+		ctx = grpc.NewContextWithServerTransportStream(ctx, &stream)
+		inboundMarshaler, outboundMarshaler := runtime.MarshalerForRequest(mux, req)
+		annotatedContext, err := runtime.AnnotateIncomingContext(ctx, mux, req, "/thzdrive.v1.PumpPlanner/FitDielectricModel", runtime.WithHTTPPathPattern("/v1/dielectric:fit"))
+		if err != nil {
+			runtime.HTTPError(ctx, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		resp, md, err := local_request_PumpPlanner_FitDielectricModel_0(annotatedContext, inboundMarshaler, server, req, pathParams)
+		md.HeaderMD, md.TrailerMD = metadata.Join(md.HeaderMD, stream.Header()), metadata.Join(md.TrailerMD, stream.Trailer())
+		annotatedContext = runtime.NewServerMetadataContext(annotatedContext, md)
+		if err != nil {
+			runtime.HTTPError(annotatedContext, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		forward_PumpPlanner_FitDielectricModel_0(annotatedContext, mux, outboundMarshaler, w, req, resp, mux.GetForwardResponseOptions()...)
+	})
+	mux.Handle(http.MethodPost, pattern_PumpPlanner_CorrectDetector_0, func(w http.ResponseWriter, req *http.Request, pathParams map[string]string) {
+		ctx, cancel := context.WithCancel(req.Context())
+		defer cancel()
+		var stream runtime.ServerTransportStream
+		ctx = grpc.NewContextWithServerTransportStream(ctx, &stream)
+		inboundMarshaler, outboundMarshaler := runtime.MarshalerForRequest(mux, req)
+		annotatedContext, err := runtime.AnnotateIncomingContext(ctx, mux, req, "/thzdrive.v1.PumpPlanner/CorrectDetector", runtime.WithHTTPPathPattern("/v1/detector:correct"))
+		if err != nil {
+			runtime.HTTPError(ctx, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		resp, md, err := local_request_PumpPlanner_CorrectDetector_0(annotatedContext, inboundMarshaler, server, req, pathParams)
+		md.HeaderMD, md.TrailerMD = metadata.Join(md.HeaderMD, stream.Header()), metadata.Join(md.TrailerMD, stream.Trailer())
+		annotatedContext = runtime.NewServerMetadataContext(annotatedContext, md)
+		if err != nil {
+			runtime.HTTPError(annotatedContext, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		forward_PumpPlanner_CorrectDetector_0(annotatedContext, mux, outboundMarshaler, w, req, resp, mux.GetForwardResponseOptions()...)
 	})
 
 	return nil
@@ -698,31 +839,88 @@ func RegisterPumpPlannerHandlerClient(ctx context.Context, mux *runtime.ServeMux
 		}
 		forward_PumpPlanner_EstimateHeating_0(annotatedContext, mux, outboundMarshaler, w, req, resp, mux.GetForwardResponseOptions()...)
 	})
+	mux.Handle(http.MethodPost, pattern_PumpPlanner_ExtractMedium_0, func(w http.ResponseWriter, req *http.Request, pathParams map[string]string) {
+		ctx, cancel := context.WithCancel(req.Context())
+		defer cancel()
+		inboundMarshaler, outboundMarshaler := runtime.MarshalerForRequest(mux, req)
+		annotatedContext, err := runtime.AnnotateContext(ctx, mux, req, "/thzdrive.v1.PumpPlanner/ExtractMedium", runtime.WithHTTPPathPattern("/v1/medium:extract"))
+		if err != nil {
+			runtime.HTTPError(ctx, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		resp, md, err := request_PumpPlanner_ExtractMedium_0(annotatedContext, inboundMarshaler, client, req, pathParams)
+		annotatedContext = runtime.NewServerMetadataContext(annotatedContext, md)
+		if err != nil {
+			runtime.HTTPError(annotatedContext, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		forward_PumpPlanner_ExtractMedium_0(annotatedContext, mux, outboundMarshaler, w, req, resp, mux.GetForwardResponseOptions()...)
+	})
+	mux.Handle(http.MethodPost, pattern_PumpPlanner_FitDielectricModel_0, func(w http.ResponseWriter, req *http.Request, pathParams map[string]string) {
+		ctx, cancel := context.WithCancel(req.Context())
+		defer cancel()
+		inboundMarshaler, outboundMarshaler := runtime.MarshalerForRequest(mux, req)
+		annotatedContext, err := runtime.AnnotateContext(ctx, mux, req, "/thzdrive.v1.PumpPlanner/FitDielectricModel", runtime.WithHTTPPathPattern("/v1/dielectric:fit"))
+		if err != nil {
+			runtime.HTTPError(ctx, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		resp, md, err := request_PumpPlanner_FitDielectricModel_0(annotatedContext, inboundMarshaler, client, req, pathParams)
+		annotatedContext = runtime.NewServerMetadataContext(annotatedContext, md)
+		if err != nil {
+			runtime.HTTPError(annotatedContext, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		forward_PumpPlanner_FitDielectricModel_0(annotatedContext, mux, outboundMarshaler, w, req, resp, mux.GetForwardResponseOptions()...)
+	})
+	mux.Handle(http.MethodPost, pattern_PumpPlanner_CorrectDetector_0, func(w http.ResponseWriter, req *http.Request, pathParams map[string]string) {
+		ctx, cancel := context.WithCancel(req.Context())
+		defer cancel()
+		inboundMarshaler, outboundMarshaler := runtime.MarshalerForRequest(mux, req)
+		annotatedContext, err := runtime.AnnotateContext(ctx, mux, req, "/thzdrive.v1.PumpPlanner/CorrectDetector", runtime.WithHTTPPathPattern("/v1/detector:correct"))
+		if err != nil {
+			runtime.HTTPError(ctx, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		resp, md, err := request_PumpPlanner_CorrectDetector_0(annotatedContext, inboundMarshaler, client, req, pathParams)
+		annotatedContext = runtime.NewServerMetadataContext(annotatedContext, md)
+		if err != nil {
+			runtime.HTTPError(annotatedContext, mux, outboundMarshaler, w, req, err)
+			return
+		}
+		forward_PumpPlanner_CorrectDetector_0(annotatedContext, mux, outboundMarshaler, w, req, resp, mux.GetForwardResponseOptions()...)
+	})
 	return nil
 }
 
 var (
-	pattern_PumpPlanner_AnalyzePulse_0    = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "pulse"}, "analyze"))
-	pattern_PumpPlanner_CalibrateField_0  = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "field"}, "calibrate"))
-	pattern_PumpPlanner_Propagate_0       = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "field"}, "propagate"))
-	pattern_PumpPlanner_DriveMode_0       = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "mode"}, "drive"))
-	pattern_PumpPlanner_SizeField_0       = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "field"}, "size"))
-	pattern_PumpPlanner_PlanExperiment_0  = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "experiment"}, "plan"))
-	pattern_PumpPlanner_Sweep_0           = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "experiment"}, "sweep"))
-	pattern_PumpPlanner_ListMaterials_0   = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "materials"}, "list"))
-	pattern_PumpPlanner_ListMaterials_1   = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "materials"}, ""))
-	pattern_PumpPlanner_EstimateHeating_0 = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "heating"}, "estimate"))
+	pattern_PumpPlanner_AnalyzePulse_0       = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "pulse"}, "analyze"))
+	pattern_PumpPlanner_CalibrateField_0     = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "field"}, "calibrate"))
+	pattern_PumpPlanner_Propagate_0          = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "field"}, "propagate"))
+	pattern_PumpPlanner_DriveMode_0          = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "mode"}, "drive"))
+	pattern_PumpPlanner_SizeField_0          = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "field"}, "size"))
+	pattern_PumpPlanner_PlanExperiment_0     = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "experiment"}, "plan"))
+	pattern_PumpPlanner_Sweep_0              = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "experiment"}, "sweep"))
+	pattern_PumpPlanner_ListMaterials_0      = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "materials"}, "list"))
+	pattern_PumpPlanner_ListMaterials_1      = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "materials"}, ""))
+	pattern_PumpPlanner_EstimateHeating_0    = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "heating"}, "estimate"))
+	pattern_PumpPlanner_ExtractMedium_0      = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "medium"}, "extract"))
+	pattern_PumpPlanner_FitDielectricModel_0 = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "dielectric"}, "fit"))
+	pattern_PumpPlanner_CorrectDetector_0    = runtime.MustPattern(runtime.NewPattern(1, []int{2, 0, 2, 1}, []string{"v1", "detector"}, "correct"))
 )
 
 var (
-	forward_PumpPlanner_AnalyzePulse_0    = runtime.ForwardResponseMessage
-	forward_PumpPlanner_CalibrateField_0  = runtime.ForwardResponseMessage
-	forward_PumpPlanner_Propagate_0       = runtime.ForwardResponseMessage
-	forward_PumpPlanner_DriveMode_0       = runtime.ForwardResponseMessage
-	forward_PumpPlanner_SizeField_0       = runtime.ForwardResponseMessage
-	forward_PumpPlanner_PlanExperiment_0  = runtime.ForwardResponseMessage
-	forward_PumpPlanner_Sweep_0           = runtime.ForwardResponseStream
-	forward_PumpPlanner_ListMaterials_0   = runtime.ForwardResponseMessage
-	forward_PumpPlanner_ListMaterials_1   = runtime.ForwardResponseMessage
-	forward_PumpPlanner_EstimateHeating_0 = runtime.ForwardResponseMessage
+	forward_PumpPlanner_AnalyzePulse_0       = runtime.ForwardResponseMessage
+	forward_PumpPlanner_CalibrateField_0     = runtime.ForwardResponseMessage
+	forward_PumpPlanner_Propagate_0          = runtime.ForwardResponseMessage
+	forward_PumpPlanner_DriveMode_0          = runtime.ForwardResponseMessage
+	forward_PumpPlanner_SizeField_0          = runtime.ForwardResponseMessage
+	forward_PumpPlanner_PlanExperiment_0     = runtime.ForwardResponseMessage
+	forward_PumpPlanner_Sweep_0              = runtime.ForwardResponseStream
+	forward_PumpPlanner_ListMaterials_0      = runtime.ForwardResponseMessage
+	forward_PumpPlanner_ListMaterials_1      = runtime.ForwardResponseMessage
+	forward_PumpPlanner_EstimateHeating_0    = runtime.ForwardResponseMessage
+	forward_PumpPlanner_ExtractMedium_0      = runtime.ForwardResponseMessage
+	forward_PumpPlanner_FitDielectricModel_0 = runtime.ForwardResponseMessage
+	forward_PumpPlanner_CorrectDetector_0    = runtime.ForwardResponseMessage
 )

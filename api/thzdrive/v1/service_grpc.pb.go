@@ -19,15 +19,18 @@ import (
 const _ = grpc.SupportPackageIsVersion9
 
 const (
-	PumpPlanner_AnalyzePulse_FullMethodName    = "/thzdrive.v1.PumpPlanner/AnalyzePulse"
-	PumpPlanner_CalibrateField_FullMethodName  = "/thzdrive.v1.PumpPlanner/CalibrateField"
-	PumpPlanner_Propagate_FullMethodName       = "/thzdrive.v1.PumpPlanner/Propagate"
-	PumpPlanner_DriveMode_FullMethodName       = "/thzdrive.v1.PumpPlanner/DriveMode"
-	PumpPlanner_SizeField_FullMethodName       = "/thzdrive.v1.PumpPlanner/SizeField"
-	PumpPlanner_PlanExperiment_FullMethodName  = "/thzdrive.v1.PumpPlanner/PlanExperiment"
-	PumpPlanner_Sweep_FullMethodName           = "/thzdrive.v1.PumpPlanner/Sweep"
-	PumpPlanner_ListMaterials_FullMethodName   = "/thzdrive.v1.PumpPlanner/ListMaterials"
-	PumpPlanner_EstimateHeating_FullMethodName = "/thzdrive.v1.PumpPlanner/EstimateHeating"
+	PumpPlanner_AnalyzePulse_FullMethodName       = "/thzdrive.v1.PumpPlanner/AnalyzePulse"
+	PumpPlanner_CalibrateField_FullMethodName     = "/thzdrive.v1.PumpPlanner/CalibrateField"
+	PumpPlanner_Propagate_FullMethodName          = "/thzdrive.v1.PumpPlanner/Propagate"
+	PumpPlanner_DriveMode_FullMethodName          = "/thzdrive.v1.PumpPlanner/DriveMode"
+	PumpPlanner_SizeField_FullMethodName          = "/thzdrive.v1.PumpPlanner/SizeField"
+	PumpPlanner_PlanExperiment_FullMethodName     = "/thzdrive.v1.PumpPlanner/PlanExperiment"
+	PumpPlanner_Sweep_FullMethodName              = "/thzdrive.v1.PumpPlanner/Sweep"
+	PumpPlanner_ListMaterials_FullMethodName      = "/thzdrive.v1.PumpPlanner/ListMaterials"
+	PumpPlanner_EstimateHeating_FullMethodName    = "/thzdrive.v1.PumpPlanner/EstimateHeating"
+	PumpPlanner_ExtractMedium_FullMethodName      = "/thzdrive.v1.PumpPlanner/ExtractMedium"
+	PumpPlanner_FitDielectricModel_FullMethodName = "/thzdrive.v1.PumpPlanner/FitDielectricModel"
+	PumpPlanner_CorrectDetector_FullMethodName    = "/thzdrive.v1.PumpPlanner/CorrectDetector"
 )
 
 // PumpPlannerClient is the client API for PumpPlanner service.
@@ -60,6 +63,15 @@ type PumpPlannerClient interface {
 	ListMaterials(ctx context.Context, in *ListMaterialsRequest, opts ...grpc.CallOption) (*ListMaterialsResponse, error)
 	// Single-pulse and steady-state heating and the transition budget.
 	EstimateHeating(ctx context.Context, in *EstimateHeatingRequest, opts ...grpc.CallOption) (*EstimateHeatingResponse, error)
+	// The optical constants of a slab (n, kappa, eps, alpha) or the sheet
+	// conductance of a film, from a reference and a sample trace.
+	ExtractMedium(ctx context.Context, in *ExtractMediumRequest, opts ...grpc.CallOption) (*ExtractMediumResponse, error)
+	// A dielectric model (eps_inf + Lorentz oscillators + Drude) fitted to a
+	// measured permittivity, with parameter uncertainties.
+	FitDielectricModel(ctx context.Context, in *FitDielectricModelRequest, opts ...grpc.CallOption) (*FitDielectricModelResponse, error)
+	// The field that reached an electro-optic detector, from the trace it
+	// recorded, with the detector's response divided out.
+	CorrectDetector(ctx context.Context, in *CorrectDetectorRequest, opts ...grpc.CallOption) (*CorrectDetectorResponse, error)
 }
 
 type pumpPlannerClient struct {
@@ -169,6 +181,36 @@ func (c *pumpPlannerClient) EstimateHeating(ctx context.Context, in *EstimateHea
 	return out, nil
 }
 
+func (c *pumpPlannerClient) ExtractMedium(ctx context.Context, in *ExtractMediumRequest, opts ...grpc.CallOption) (*ExtractMediumResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(ExtractMediumResponse)
+	err := c.cc.Invoke(ctx, PumpPlanner_ExtractMedium_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+func (c *pumpPlannerClient) FitDielectricModel(ctx context.Context, in *FitDielectricModelRequest, opts ...grpc.CallOption) (*FitDielectricModelResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(FitDielectricModelResponse)
+	err := c.cc.Invoke(ctx, PumpPlanner_FitDielectricModel_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+func (c *pumpPlannerClient) CorrectDetector(ctx context.Context, in *CorrectDetectorRequest, opts ...grpc.CallOption) (*CorrectDetectorResponse, error) {
+	cOpts := append([]grpc.CallOption{grpc.StaticMethod()}, opts...)
+	out := new(CorrectDetectorResponse)
+	err := c.cc.Invoke(ctx, PumpPlanner_CorrectDetector_FullMethodName, in, out, cOpts...)
+	if err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
 // PumpPlannerServer is the server API for PumpPlanner service.
 // All implementations must embed UnimplementedPumpPlannerServer
 // for forward compatibility.
@@ -199,6 +241,15 @@ type PumpPlannerServer interface {
 	ListMaterials(context.Context, *ListMaterialsRequest) (*ListMaterialsResponse, error)
 	// Single-pulse and steady-state heating and the transition budget.
 	EstimateHeating(context.Context, *EstimateHeatingRequest) (*EstimateHeatingResponse, error)
+	// The optical constants of a slab (n, kappa, eps, alpha) or the sheet
+	// conductance of a film, from a reference and a sample trace.
+	ExtractMedium(context.Context, *ExtractMediumRequest) (*ExtractMediumResponse, error)
+	// A dielectric model (eps_inf + Lorentz oscillators + Drude) fitted to a
+	// measured permittivity, with parameter uncertainties.
+	FitDielectricModel(context.Context, *FitDielectricModelRequest) (*FitDielectricModelResponse, error)
+	// The field that reached an electro-optic detector, from the trace it
+	// recorded, with the detector's response divided out.
+	CorrectDetector(context.Context, *CorrectDetectorRequest) (*CorrectDetectorResponse, error)
 	mustEmbedUnimplementedPumpPlannerServer()
 }
 
@@ -235,6 +286,15 @@ func (UnimplementedPumpPlannerServer) ListMaterials(context.Context, *ListMateri
 }
 func (UnimplementedPumpPlannerServer) EstimateHeating(context.Context, *EstimateHeatingRequest) (*EstimateHeatingResponse, error) {
 	return nil, status.Error(codes.Unimplemented, "method EstimateHeating not implemented")
+}
+func (UnimplementedPumpPlannerServer) ExtractMedium(context.Context, *ExtractMediumRequest) (*ExtractMediumResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method ExtractMedium not implemented")
+}
+func (UnimplementedPumpPlannerServer) FitDielectricModel(context.Context, *FitDielectricModelRequest) (*FitDielectricModelResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method FitDielectricModel not implemented")
+}
+func (UnimplementedPumpPlannerServer) CorrectDetector(context.Context, *CorrectDetectorRequest) (*CorrectDetectorResponse, error) {
+	return nil, status.Error(codes.Unimplemented, "method CorrectDetector not implemented")
 }
 func (UnimplementedPumpPlannerServer) mustEmbedUnimplementedPumpPlannerServer() {}
 func (UnimplementedPumpPlannerServer) testEmbeddedByValue()                     {}
@@ -412,6 +472,60 @@ func _PumpPlanner_EstimateHeating_Handler(srv interface{}, ctx context.Context, 
 	return interceptor(ctx, in, info, handler)
 }
 
+func _PumpPlanner_ExtractMedium_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(ExtractMediumRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(PumpPlannerServer).ExtractMedium(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: PumpPlanner_ExtractMedium_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(PumpPlannerServer).ExtractMedium(ctx, req.(*ExtractMediumRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
+func _PumpPlanner_FitDielectricModel_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(FitDielectricModelRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(PumpPlannerServer).FitDielectricModel(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: PumpPlanner_FitDielectricModel_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(PumpPlannerServer).FitDielectricModel(ctx, req.(*FitDielectricModelRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
+func _PumpPlanner_CorrectDetector_Handler(srv interface{}, ctx context.Context, dec func(interface{}) error, interceptor grpc.UnaryServerInterceptor) (interface{}, error) {
+	in := new(CorrectDetectorRequest)
+	if err := dec(in); err != nil {
+		return nil, err
+	}
+	if interceptor == nil {
+		return srv.(PumpPlannerServer).CorrectDetector(ctx, in)
+	}
+	info := &grpc.UnaryServerInfo{
+		Server:     srv,
+		FullMethod: PumpPlanner_CorrectDetector_FullMethodName,
+	}
+	handler := func(ctx context.Context, req interface{}) (interface{}, error) {
+		return srv.(PumpPlannerServer).CorrectDetector(ctx, req.(*CorrectDetectorRequest))
+	}
+	return interceptor(ctx, in, info, handler)
+}
+
 // PumpPlanner_ServiceDesc is the grpc.ServiceDesc for PumpPlanner service.
 // It's only intended for direct use with grpc.RegisterService,
 // and not to be introspected or modified (even as a copy)
@@ -450,6 +564,18 @@ var PumpPlanner_ServiceDesc = grpc.ServiceDesc{
 		{
 			MethodName: "EstimateHeating",
 			Handler:    _PumpPlanner_EstimateHeating_Handler,
+		},
+		{
+			MethodName: "ExtractMedium",
+			Handler:    _PumpPlanner_ExtractMedium_Handler,
+		},
+		{
+			MethodName: "FitDielectricModel",
+			Handler:    _PumpPlanner_FitDielectricModel_Handler,
+		},
+		{
+			MethodName: "CorrectDetector",
+			Handler:    _PumpPlanner_CorrectDetector_Handler,
 		},
 	},
 	Streams: []grpc.StreamDesc{

@@ -3,8 +3,10 @@
 // through the beam path into the sample, drives a phonon mode, sizes the
 // field a target amplitude needs, estimates the heating, and plans or sweeps
 // a whole experiment described by a scenario file (a PlanExperimentRequest
-// in YAML or JSON). It prints a report for a person, JSON (--json) or CSV
-// tables (--csv) for a program.
+// in YAML or JSON); and it takes measured traces apart: the sample's optical
+// constants and dielectric model, and the field behind the detector. It
+// prints a report for a person, JSON (--json) or CSV tables (--csv) for a
+// program.
 //
 // With --server (or THZDRIVE_SERVER) it calls a running thzdrived; several
 // comma-separated addresses are balanced round-robin with retries. Without
@@ -78,6 +80,9 @@ func init() {
 		{"materials", "the embedded material catalogue", runMaterials},
 		{"plan", "the whole chain for a scenario file, stage by stage", runPlan},
 		{"sweep", "a scenario's plan over a grid of one or two parameters, as CSV", runSweep},
+		{"extract", "n, κ, ε and α of a slab (or a film's sheet conductance) from two measured traces", runExtract},
+		{"fit", "a dielectric model (ε∞, Lorentz oscillators, Drude) fitted to a measured permittivity", runFit},
+		{"correct", "the field behind an electro-optic detector, its response divided out", runCorrect},
 		{"demo", "run the built-in invented scenario (needs no server)", runDemo},
 	}
 }

@@ -34,7 +34,8 @@ func demoFile(t *testing.T) string {
 	return p
 }
 
-// Simple inputs for every subcommand; {demo} stands for the scenario file.
+// Simple inputs for every subcommand; {demo} stands for the scenario file,
+// {ref} and {sam} for a reference and a sample trace (see tdsFiles).
 var simpleArgs = map[string][]string{
 	"analyze":   {"analyze", "--peak-frequency", "1 THz", "--peak-field", "100 kV/cm"},
 	"calibrate": {"calibrate", "--peak-frequency", "1 THz", "--energy", "1 uJ", "--spot-radius", "500 um"},
@@ -50,13 +51,21 @@ var simpleArgs = map[string][]string{
 	"plan":      {"plan", "{demo}"},
 	"sweep":     {"sweep", "{demo}", "--axis", "calibration.pulse_energy_uj=1:2:2"},
 	"demo":      {"demo"},
+	"extract":   {"extract", "{ref}", "{sam}", "--thickness", "500 um"},
+	"fit":       {"fit", "{ref}", "{sam}", "--thickness", "500 um", "--eps-inf", "11"},
+	"correct":   {"correct", "{ref}", "--crystal-thickness", "1 mm"},
 }
 
 func withDemo(t *testing.T, args []string) []string {
 	out := make([]string, len(args))
 	for i, a := range args {
-		if a == "{demo}" {
+		switch a {
+		case "{demo}":
 			a = demoFile(t)
+		case "{ref}":
+			a, _ = tdsFiles(t)
+		case "{sam}":
+			_, a = tdsFiles(t)
 		}
 		out[i] = a
 	}

@@ -11,6 +11,7 @@ from google.protobuf import symbol_database as _symbol_database
 _sym_db = _symbol_database.Default()
 
 
+from thzdrive.v1 import extract_pb2 as thzdrive_dot_v1_dot_extract__pb2
 from thzdrive.v1 import mode_pb2 as thzdrive_dot_v1_dot_mode__pb2
 from thzdrive.v1 import optics_pb2 as thzdrive_dot_v1_dot_optics__pb2
 from thzdrive.v1 import plan_pb2 as thzdrive_dot_v1_dot_plan__pb2
@@ -18,7 +19,7 @@ from thzdrive.v1 import pulse_pb2 as thzdrive_dot_v1_dot_pulse__pb2
 from thzdrive.v1 import thermal_pb2 as thzdrive_dot_v1_dot_thermal__pb2
 
 
-DESCRIPTOR = _descriptor_pool.Default().AddSerializedFile(b'\n\x19thzdrive/v1/service.proto\x12\x0bthzdrive.v1\x1a\x16thzdrive/v1/mode.proto\x1a\x18thzdrive/v1/optics.proto\x1a\x16thzdrive/v1/plan.proto\x1a\x17thzdrive/v1/pulse.proto\x1a\x19thzdrive/v1/thermal.proto2\xf4\x05\n\x0bPumpPlanner\x12S\n\x0c\x41nalyzePulse\x12 .thzdrive.v1.AnalyzePulseRequest\x1a!.thzdrive.v1.AnalyzePulseResponse\x12Y\n\x0e\x43\x61librateField\x12\".thzdrive.v1.CalibrateFieldRequest\x1a#.thzdrive.v1.CalibrateFieldResponse\x12J\n\tPropagate\x12\x1d.thzdrive.v1.PropagateRequest\x1a\x1e.thzdrive.v1.PropagateResponse\x12J\n\tDriveMode\x12\x1d.thzdrive.v1.DriveModeRequest\x1a\x1e.thzdrive.v1.DriveModeResponse\x12J\n\tSizeField\x12\x1d.thzdrive.v1.SizeFieldRequest\x1a\x1e.thzdrive.v1.SizeFieldResponse\x12Y\n\x0ePlanExperiment\x12\".thzdrive.v1.PlanExperimentRequest\x1a#.thzdrive.v1.PlanExperimentResponse\x12@\n\x05Sweep\x12\x19.thzdrive.v1.SweepRequest\x1a\x1a.thzdrive.v1.SweepResponse0\x01\x12V\n\rListMaterials\x12!.thzdrive.v1.ListMaterialsRequest\x1a\".thzdrive.v1.ListMaterialsResponse\x12\\\n\x0f\x45stimateHeating\x12#.thzdrive.v1.EstimateHeatingRequest\x1a$.thzdrive.v1.EstimateHeatingResponseB%Z#thzdrive/api/thzdrive/v1;thzdrivev1b\x06proto3')
+DESCRIPTOR = _descriptor_pool.Default().AddSerializedFile(b'\n\x19thzdrive/v1/service.proto\x12\x0bthzdrive.v1\x1a\x19thzdrive/v1/extract.proto\x1a\x16thzdrive/v1/mode.proto\x1a\x18thzdrive/v1/optics.proto\x1a\x16thzdrive/v1/plan.proto\x1a\x17thzdrive/v1/pulse.proto\x1a\x19thzdrive/v1/thermal.proto2\x91\x08\n\x0bPumpPlanner\x12S\n\x0c\x41nalyzePulse\x12 .thzdrive.v1.AnalyzePulseRequest\x1a!.thzdrive.v1.AnalyzePulseResponse\x12Y\n\x0e\x43\x61librateField\x12\".thzdrive.v1.CalibrateFieldRequest\x1a#.thzdrive.v1.CalibrateFieldResponse\x12J\n\tPropagate\x12\x1d.thzdrive.v1.PropagateRequest\x1a\x1e.thzdrive.v1.PropagateResponse\x12J\n\tDriveMode\x12\x1d.thzdrive.v1.DriveModeRequest\x1a\x1e.thzdrive.v1.DriveModeResponse\x12J\n\tSizeField\x12\x1d.thzdrive.v1.SizeFieldRequest\x1a\x1e.thzdrive.v1.SizeFieldResponse\x12Y\n\x0ePlanExperiment\x12\".thzdrive.v1.PlanExperimentRequest\x1a#.thzdrive.v1.PlanExperimentResponse\x12@\n\x05Sweep\x12\x19.thzdrive.v1.SweepRequest\x1a\x1a.thzdrive.v1.SweepResponse0\x01\x12V\n\rListMaterials\x12!.thzdrive.v1.ListMaterialsRequest\x1a\".thzdrive.v1.ListMaterialsResponse\x12\\\n\x0f\x45stimateHeating\x12#.thzdrive.v1.EstimateHeatingRequest\x1a$.thzdrive.v1.EstimateHeatingResponse\x12V\n\rExtractMedium\x12!.thzdrive.v1.ExtractMediumRequest\x1a\".thzdrive.v1.ExtractMediumResponse\x12\x65\n\x12\x46itDielectricModel\x12&.thzdrive.v1.FitDielectricModelRequest\x1a\'.thzdrive.v1.FitDielectricModelResponse\x12\\\n\x0f\x43orrectDetector\x12#.thzdrive.v1.CorrectDetectorRequest\x1a$.thzdrive.v1.CorrectDetectorResponseB%Z#thzdrive/api/thzdrive/v1;thzdrivev1b\x06proto3')
 
 _builder.BuildMessageAndEnumDescriptors(DESCRIPTOR, globals())
 _builder.BuildTopDescriptorsAndMessages(DESCRIPTOR, 'thzdrive.v1.service_pb2', globals())
@@ -26,6 +27,6 @@ if _descriptor._USE_C_DESCRIPTORS == False:
 
   DESCRIPTOR._options = None
   DESCRIPTOR._serialized_options = b'Z#thzdrive/api/thzdrive/v1;thzdrivev1'
-  _PUMPPLANNER._serialized_start=169
-  _PUMPPLANNER._serialized_end=925
+  _PUMPPLANNER._serialized_start=196
+  _PUMPPLANNER._serialized_end=1237
 # @@protoc_insertion_point(module_scope)

@@ -2,6 +2,7 @@
 """Client and server classes corresponding to protobuf-defined services."""
 import grpc
 
+from thzdrive.v1 import extract_pb2 as thzdrive_dot_v1_dot_extract__pb2
 from thzdrive.v1 import mode_pb2 as thzdrive_dot_v1_dot_mode__pb2
 from thzdrive.v1 import optics_pb2 as thzdrive_dot_v1_dot_optics__pb2
 from thzdrive.v1 import plan_pb2 as thzdrive_dot_v1_dot_plan__pb2
@@ -65,6 +66,21 @@ class PumpPlannerStub(object):
                 '/thzdrive.v1.PumpPlanner/EstimateHeating',
                 request_serializer=thzdrive_dot_v1_dot_thermal__pb2.EstimateHeatingRequest.SerializeToString,
                 response_deserializer=thzdrive_dot_v1_dot_thermal__pb2.EstimateHeatingResponse.FromString,
+                )
+        self.ExtractMedium = channel.unary_unary(
+                '/thzdrive.v1.PumpPlanner/ExtractMedium',
+                request_serializer=thzdrive_dot_v1_dot_extract__pb2.ExtractMediumRequest.SerializeToString,
+                response_deserializer=thzdrive_dot_v1_dot_extract__pb2.ExtractMediumResponse.FromString,
+                )
+        self.FitDielectricModel = channel.unary_unary(
+                '/thzdrive.v1.PumpPlanner/FitDielectricModel',
+                request_serializer=thzdrive_dot_v1_dot_extract__pb2.FitDielectricModelRequest.SerializeToString,
+                response_deserializer=thzdrive_dot_v1_dot_extract__pb2.FitDielectricModelResponse.FromString,
+                )
+        self.CorrectDetector = channel.unary_unary(
+                '/thzdrive.v1.PumpPlanner/CorrectDetector',
+                request_serializer=thzdrive_dot_v1_dot_extract__pb2.CorrectDetectorRequest.SerializeToString,
+                response_deserializer=thzdrive_dot_v1_dot_extract__pb2.CorrectDetectorResponse.FromString,
                 )
 
 
@@ -141,6 +157,30 @@ class PumpPlannerServicer(object):
         context.set_details('Method not implemented!')
         raise NotImplementedError('Method not implemented!')
 
+    def ExtractMedium(self, request, context):
+        """The optical constants of a slab (n, kappa, eps, alpha) or the sheet
+        conductance of a film, from a reference and a sample trace.
+        """
+        context.set_code(grpc.StatusCode.UNIMPLEMENTED)
+        context.set_details('Method not implemented!')
+        raise NotImplementedError('Method not implemented!')
+
+    def FitDielectricModel(self, request, context):
+        """A dielectric model (eps_inf + Lorentz oscillators + Drude) fitted to a
+        measured permittivity, with parameter uncertainties.
+        """
+        context.set_code(grpc.StatusCode.UNIMPLEMENTED)
+        context.set_details('Method not implemented!')
+        raise NotImplementedError('Method not implemented!')
+
+    def CorrectDetector(self, request, context):
+        """The field that reached an electro-optic detector, from the trace it
+        recorded, with the detector's response divided out.
+        """
+        context.set_code(grpc.StatusCode.UNIMPLEMENTED)
+        context.set_details('Method not implemented!')
+        raise NotImplementedError('Method not implemented!')
+
 
 def add_PumpPlannerServicer_to_server(servicer, server):
     rpc_method_handlers = {
@@ -188,6 +228,21 @@ def add_PumpPlannerServicer_to_server(servicer, server):
                     servicer.EstimateHeating,
                     request_deserializer=thzdrive_dot_v1_dot_thermal__pb2.EstimateHeatingRequest.FromString,
                     response_serializer=thzdrive_dot_v1_dot_thermal__pb2.EstimateHeatingResponse.SerializeToString,
+            ),
+            'ExtractMedium': grpc.unary_unary_rpc_method_handler(
+                    servicer.ExtractMedium,
+                    request_deserializer=thzdrive_dot_v1_dot_extract__pb2.ExtractMediumRequest.FromString,
+                    response_serializer=thzdrive_dot_v1_dot_extract__pb2.ExtractMediumResponse.SerializeToString,
+            ),
+            'FitDielectricModel': grpc.unary_unary_rpc_method_handler(
+                    servicer.FitDielectricModel,
+                    request_deserializer=thzdrive_dot_v1_dot_extract__pb2.FitDielectricModelRequest.FromString,
+                    response_serializer=thzdrive_dot_v1_dot_extract__pb2.FitDielectricModelResponse.SerializeToString,
+            ),
+            'CorrectDetector': grpc.unary_unary_rpc_method_handler(
+                    servicer.CorrectDetector,
+                    request_deserializer=thzdrive_dot_v1_dot_extract__pb2.CorrectDetectorRequest.FromString,
+                    response_serializer=thzdrive_dot_v1_dot_extract__pb2.CorrectDetectorResponse.SerializeToString,
             ),
     }
     generic_handler = grpc.method_handlers_generic_handler(
@@ -352,5 +407,56 @@ class PumpPlanner(object):
         return grpc.experimental.unary_unary(request, target, '/thzdrive.v1.PumpPlanner/EstimateHeating',
             thzdrive_dot_v1_dot_thermal__pb2.EstimateHeatingRequest.SerializeToString,
             thzdrive_dot_v1_dot_thermal__pb2.EstimateHeatingResponse.FromString,
+            options, channel_credentials,
+            insecure, call_credentials, compression, wait_for_ready, timeout, metadata)
+
+    @staticmethod
+    def ExtractMedium(request,
+            target,
+            options=(),
+            channel_credentials=None,
+            call_credentials=None,
+            insecure=False,
+            compression=None,
+            wait_for_ready=None,
+            timeout=None,
+            metadata=None):
+        return grpc.experimental.unary_unary(request, target, '/thzdrive.v1.PumpPlanner/ExtractMedium',
+            thzdrive_dot_v1_dot_extract__pb2.ExtractMediumRequest.SerializeToString,
+            thzdrive_dot_v1_dot_extract__pb2.ExtractMediumResponse.FromString,
+            options, channel_credentials,
+            insecure, call_credentials, compression, wait_for_ready, timeout, metadata)
+
+    @staticmethod
+    def FitDielectricModel(request,
+            target,
+            options=(),
+            channel_credentials=None,
+            call_credentials=None,
+            insecure=False,
+            compression=None,
+            wait_for_ready=None,
+            timeout=None,
+            metadata=None):
+        return grpc.experimental.unary_unary(request, target, '/thzdrive.v1.PumpPlanner/FitDielectricModel',
+            thzdrive_dot_v1_dot_extract__pb2.FitDielectricModelRequest.SerializeToString,
+            thzdrive_dot_v1_dot_extract__pb2.FitDielectricModelResponse.FromString,
+            options, channel_credentials,
+            insecure, call_credentials, compression, wait_for_ready, timeout, metadata)
+
+    @staticmethod
+    def CorrectDetector(request,
+            target,
+            options=(),
+            channel_credentials=None,
+            call_credentials=None,
+            insecure=False,
+            compression=None,
+            wait_for_ready=None,
+            timeout=None,
+            metadata=None):
+        return grpc.experimental.unary_unary(request, target, '/thzdrive.v1.PumpPlanner/CorrectDetector',
+            thzdrive_dot_v1_dot_extract__pb2.CorrectDetectorRequest.SerializeToString,
+            thzdrive_dot_v1_dot_extract__pb2.CorrectDetectorResponse.FromString,
             options, channel_credentials,
             insecure, call_credentials, compression, wait_for_ready, timeout, metadata)
