@@ -2,6 +2,8 @@ package optics
 
 import (
 	"testing"
+
+	"thzdrive/pulse"
 )
 
 // benchEvaluator builds a train with a window, a filter and an attenuator
@@ -111,3 +113,40 @@ func benchmarkPlainStack(b *testing.B, layers int) {
 // benchmarkPlainStack.
 func BenchmarkPlainStack1Layer(b *testing.B)   { benchmarkPlainStack(b, 1) }
 func BenchmarkPlainStack10Layers(b *testing.B) { benchmarkPlainStack(b, 10) }
+
+// benchmarkPropagate carries a 4 096-sample single-cycle trace, zero-padded
+// to 8 192 samples (4 097 frequencies), through a lossless window (first
+// pass) and a sample of constant lossy layers on a substrate at normal
+// incidence, target at the front of the last layer: the forward transform,
+// Evaluate, the inverse transform and the cautions.
+func benchmarkPropagate(b *testing.B, layers int) {
+	st := Stack{Exit: Constant{N: 3.4175}}
+	for i := range layers {
+		st.Layers = append(st.Layers, Layer{Medium: Constant{1.5 + 0.2*float64(i), 0.01}, ThicknessM: 5e-6})
+	}
+	ev, err := NewEvaluator(Train{
+		Elements: []Element{Slab{Medium: Constant{N: 3.4175}, ThicknessM: 1e-3, Incoherent: true}},
+		Sample:   st, Target: Target{Layer: layers - 1},
+	})
+	if err != nil {
+		b.Fatal(err)
+	}
+	const n, step = 4096, 10e-15
+	in := pulse.Trace{StartS: -n * step / 2, StepS: step, Field: make([]float64, n), Absolute: true}
+	m := pulse.Model{Shape: pulse.SingleCycle, PeakFrequencyHz: 1e12, PeakFieldVPerM: 1e7}
+	for i := range in.Field {
+		in.Field[i] = m.At(in.TimeS(i))
+	}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for b.Loop() {
+		if _, err := Propagate(ev, in, 2*n); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkPropagate1Layer and BenchmarkPropagate10Layers: see
+// benchmarkPropagate.
+func BenchmarkPropagate1Layer(b *testing.B)   { benchmarkPropagate(b, 1) }
+func BenchmarkPropagate10Layers(b *testing.B) { benchmarkPropagate(b, 10) }

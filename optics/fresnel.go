@@ -109,7 +109,15 @@ type wave struct {
 // normal incidence p is computed as s: the two are identical there in our
 // convention, and this avoids dividing by ñ.
 func newWave(pol Polarization, n complex128, beta float64) wave {
-	w := wave{n: n, eps: n * n}
+	var w wave
+	w.set(pol, n, beta)
+	return w
+}
+
+// set is newWave in place (the inner loops of Solver write the wave of a
+// layer where it lives rather than copy five complex numbers).
+func (w *wave) set(pol Polarization, n complex128, beta float64) {
+	w.n, w.eps = n, n*n
 	if beta == 0 {
 		w.q = n
 	} else {
@@ -122,7 +130,6 @@ func newWave(pol Polarization, n complex128, beta float64) wave {
 		w.gU = 1
 		w.gV = w.q
 	}
-	return w
 }
 
 func checkAngle(field string, angleRad float64) error {

@@ -135,6 +135,17 @@ type slabElem struct {
 	incoherent bool
 	fixed      bool
 	n          complex128
+
+	// A fixed slab: t01·t10 = 1 - r² and r², and on a uniform grid its two
+	// exponentials e^{iωd(ñ-1)/c} and e^{2iωdñ/c} with their factors per
+	// grid step (see gridPhases).
+	oneMinusR2, r2 complex128
+	e1, de1        complex128
+	e2, de2        complex128
+
+	// pre holds the index at the frequencies of Evaluate's current block
+	// (not fixed media only), as Solver.prefetch.
+	pre []complex128
 }
 
 // NewEvaluator validates the train and prepares an Evaluator. Errors are
@@ -222,8 +233,40 @@ func newSlabElem(field string, s Slab) (slabElem, error) {
 			return slabElem{}, err
 		}
 		e.fixed, e.n = true, n
+		r := cdiv(n-1, n+1)
+		e.r2 = r * r
+		e.oneMinusR2 = 1 - e.r2
+	} else {
+		e.pre = make([]complex128, prefetchBlock)
 	}
 	return e, nil
+}
+
+// gridPhases sets the exponentials of a fixed slab at freqHz on a uniform
+// grid of step dfHz: directly when anchor is set (with their per-step
+// factors), else by one step of the recurrence (see Solver.gridAnchor for
+// the round-off).
+func (s *slabElem) gridPhases(freqHz float64, anchor bool, dfHz float64) {
+	if !anchor {
+		s.e1 *= s.de1
+		s.e2 *= s.de2
+		return
+	}
+	k0d := complex(units.AngularFrequency(freqHz)/units.SpeedOfLight*s.thickM, 0)
+	k1d := complex(units.AngularFrequency(dfHz)/units.SpeedOfLight*s.thickM, 0)
+	s.e1, s.de1 = cexpi(k0d*(s.n-1)), cexpi(k1d*(s.n-1))
+	if !s.incoherent {
+		s.e2, s.de2 = cexpi(2*k0d*s.n), cexpi(2*k1d*s.n)
+	}
+}
+
+// gridTransmission is transmission from the exponentials of gridPhases.
+func (s *slabElem) gridTransmission() complex128 {
+	t := s.oneMinusR2 * s.e1
+	if !s.incoherent {
+		t = cdiv(t, 1-s.r2*s.e2)
+	}
+	return t
 }
 
 func checkTarget(t Target, s Stack) error {
@@ -267,9 +310,19 @@ func checkTarget(t Target, s Stack) error {
 //	coherent:   (1 - r²)·e^{iφ}·e^{-iωd/c} / (1 - r²·e^{2iφ})   (Airy; Born & Wolf §7.6.1)
 //	incoherent: (1 - r²)·e^{iφ}·e^{-iωd/c}                        (first pass)
 func (s *slabElem) transmission(freqHz float64) (complex128, error) {
+	return s.transmissionAt(freqHz, -1)
+}
+
+// transmissionAt is transmission with the index prefetched at position pos
+// of the current block (pos >= 0), as Solver.index.
+func (s *slabElem) transmissionAt(freqHz float64, pos int) (complex128, error) {
 	n := s.n
 	if !s.fixed {
-		n = s.medium.Index(freqHz)
+		if pos >= 0 {
+			n = s.pre[pos]
+		} else {
+			n = s.medium.Index(freqHz)
+		}
 		if !goodIndex(n) {
 			return 0, checkIndex(s.field+".Medium", s.name, freqHz, n)
 		}
@@ -290,6 +343,15 @@ func (s *slabElem) transmission(freqHz float64) (complex128, error) {
 // absorbed[k] (for ExitMedium: the fraction entering the exit half-space,
 // which an absorbing half-space absorbs in full). Both slices must have the
 // length of freqHz. The grid need not be uniform or sorted.
+//
+// Speed. On a uniform grid (uniformStep; the grids of package pulse are)
+// the exponentials of fixed layers and slabs (constant index) advance from
+// one frequency to the next by one complex product, re-anchored by an
+// exact evaluation every gridAnchorEvery frequencies; Solver.gridAnchor
+// bounds what this adds to the round-off (1.5e-14 relative). The indices of
+// other media are computed for blocks of prefetchBlock frequencies ahead of
+// the solution. Either way the results are those of Solver.Solve at each
+// frequency, to round-off.
 //
 // The field at the target is the Target.Component of the electric field per
 // unit amplitude of the incident wave, with the phase reference of Train.
@@ -313,26 +375,58 @@ func (e *Evaluator) Evaluate(freqHz []float64, field []complex128, absorbed []fl
 		return inputErr("absorbed", "length %d differs from the %d frequencies", len(absorbed), len(freqHz))
 	}
 	tg := e.train.Target
+	grid, df := uniformStep(freqHz)
+	sinceAnchor := gridAnchorEvery // the first positive frequency anchors
+	sv := e.solver
+	defer func() { sv.pos = -1 }()
 	for k, f := range freqHz {
 		if !finite(f) || f < 0 {
 			return inputErr(fmt.Sprintf("freqHz[%d]", k), "%g must be finite and >= 0", f)
 		}
+		if k%prefetchBlock == 0 {
+			block := freqHz[k:min(k+prefetchBlock, len(freqHz))]
+			sv.prefetch(block)
+			for i := range e.slabs {
+				if s := &e.slabs[i]; !s.fixed {
+					for j, fj := range block {
+						if fj > 0 && fj <= math.MaxFloat64 {
+							s.pre[j] = s.medium.Index(fj)
+						}
+					}
+				}
+			}
+		}
+		pos := k % prefetchBlock
 		if f == 0 {
 			field[k] = 0
 			if absorbed != nil {
 				absorbed[k] = 0
 			}
+			sinceAnchor = gridAnchorEvery
 			continue
 		}
+		anchor := sinceAnchor >= gridAnchorEvery
+		if anchor {
+			sinceAnchor = 0
+		}
+		sinceAnchor++
 		fac := e.constFactor
 		for i := range e.slabs {
-			t, err := e.slabs[i].transmission(f)
-			if err != nil {
-				return err
+			s := &e.slabs[i]
+			var t complex128
+			if grid && s.fixed {
+				s.gridPhases(f, anchor, df)
+				t = s.gridTransmission()
+			} else {
+				var err error
+				if t, err = s.transmissionAt(f, pos); err != nil {
+					return err
+				}
 			}
 			fac *= t
 		}
-		if _, err := e.solver.Solve(f); err != nil {
+		sv.pos = pos
+		if _, err := sv.solve(f, grid, anchor, df); err != nil {
 			return err
 		}
 		var fl Field
@@ -358,6 +452,33 @@ func (e *Evaluator) Evaluate(freqHz []float64, field []complex128, absorbed []fl
 		}
 	}
 	return nil
+}
+
+// gridAnchorEvery is how many steps of a uniform grid the recurrences of
+// Evaluate take between exact evaluations (see Solver.gridAnchor).
+const gridAnchorEvery = 32
+
+// uniformStep reports whether the grid is uniform, f_k = f_0 + k·df with
+// df > 0, to within 4 ulp of its largest frequency (the grids of package
+// pulse, k/(N·dt), are, to one ulp), and returns df. Evaluate then steps
+// the exponentials of fixed layers and slabs by recurrence.
+func uniformStep(freqHz []float64) (bool, float64) {
+	n := len(freqHz)
+	if n < 3 {
+		return false, 0
+	}
+	f0, fl := freqHz[0], freqHz[n-1]
+	df := (fl - f0) / float64(n-1)
+	if !finite(f0) || !finite(fl) || !(df > 0) {
+		return false, 0
+	}
+	tol := 4 * 0x1p-52 * max(math.Abs(f0), math.Abs(fl))
+	for k, f := range freqHz {
+		if !(math.Abs(f-(f0+float64(k)*df)) <= tol) {
+			return false, 0
+		}
+	}
+	return true, df
 }
 
 // Echoes returns the first-echo delay of every slab element and every

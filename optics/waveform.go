@@ -3,6 +3,7 @@ package optics
 import (
 	"fmt"
 	"math"
+	"sync"
 
 	"thzdrive/caution"
 	"thzdrive/pulse"
@@ -48,6 +49,9 @@ type Propagation struct {
 	Cautions []caution.Caution
 }
 
+// specPool holds Propagate's spectrum buffers between calls.
+var specPool = sync.Pool{New: func() any { return new([]complex128) }}
+
 // Propagate carries the incident trace in through the train of ev: it zero-
 // pads the trace to at least padTo samples (rounded up to a fast transform
 // length; padding keeps the delays of windows and the ring of resonances
@@ -63,7 +67,12 @@ func Propagate(ev *Evaluator, in pulse.Trace, padTo int) (Propagation, error) {
 	defer pulse.Release(t)
 	samples := make([]float64, n)
 	copy(samples, in.Field)
-	spec := t.Forward(nil, samples, in.StepS)
+	sp := specPool.Get().(*[]complex128)
+	defer specPool.Put(sp)
+	if cap(*sp) < t.Bins() {
+		*sp = make([]complex128, t.Bins())
+	}
+	spec := t.Forward((*sp)[:t.Bins()], samples, in.StepS)
 	out := Propagation{
 		FreqHz:   make([]float64, len(spec)),
 		Transfer: make([]complex128, len(spec)),
@@ -85,7 +94,7 @@ func Propagate(ev *Evaluator, in pulse.Trace, padTo int) (Propagation, error) {
 		power[k] = p
 		num += out.Absorbed[k] * p
 		den += p
-		peakPower = math.Max(peakPower, p)
+		peakPower = max(peakPower, p)
 		spec[k] = s * out.Transfer[k]
 	}
 	if den > 0 {
@@ -99,7 +108,7 @@ func Propagate(ev *Evaluator, in pulse.Trace, padTo int) (Propagation, error) {
 		}
 	}
 	for _, x := range out.Target.Field {
-		out.TargetPeakVPerM = math.Max(out.TargetPeakVPerM, math.Abs(x))
+		out.TargetPeakVPerM = max(out.TargetPeakVPerM, math.Abs(x))
 	}
 
 	// The band that carries the pulse (all but CautionEnergyFraction of its

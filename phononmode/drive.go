@@ -3,6 +3,7 @@ package phononmode
 import (
 	"fmt"
 	"math"
+	"sync"
 
 	"thzdrive/caution"
 	"thzdrive/pulse"
@@ -201,10 +202,19 @@ func (s *Solver) release() {
 	s.trPad, s.trU, s.trD = nil, nil, nil
 }
 
-// Drive computes the response of mode m to the field f with a fresh Solver.
+// solvers keeps the work buffers of Drive between calls (a plan of 32 768
+// samples pads to ~70 000, so they weigh ~2 MB): reusing them spares the
+// allocation, the zeroing and the garbage collections it would cause.
+var solvers = sync.Pool{New: func() any { return new(Solver) }}
+
+// Drive computes the response of mode m to the field f with a Solver from
+// a pool (its buffers are reused; the result is the caller's).
 func Drive(m Mode, f Field, opt Options) (*Result, error) {
-	var s Solver
-	defer s.release()
+	s := solvers.Get().(*Solver)
+	defer func() {
+		s.release()
+		solvers.Put(s)
+	}()
 	r := new(Result)
 	if err := s.Drive(m, f, opt, r); err != nil {
 		return nil, err
@@ -396,26 +406,34 @@ func (s *Solver) spectralMetrics(m Mode, f Field, nPad int, r *Result) {
 		r.Overlap = num / den
 	}
 	if peak > 0 {
-		r.RelAmplitudeAtMode = cmplxAbs(dtft(f.VPerM, f.StepS, w0)) / s.spectralPeak(f, dw, kp)
+		// max_f|E(f)|: the largest bin kp, refined by the vertex of the
+		// parabola through |E| at it and its two neighbours, where the
+		// spectrum is evaluated directly (dtft) in the same pass as at the
+		// mode.
+		best := cmplxAbs(s.spec[kp])
+		if wv, ok := s.peakVertex(dw, kp); ok {
+			atMode, atVertex := dtft2(f.VPerM, f.StepS, w0, wv)
+			r.RelAmplitudeAtMode = cmplxAbs(atMode) / math.Max(best, cmplxAbs(atVertex))
+		} else {
+			r.RelAmplitudeAtMode = cmplxAbs(dtft(f.VPerM, f.StepS, w0)) / best
+		}
 	}
 }
 
-// spectralPeak is max_f|E(f)|: the largest bin kp, refined by the vertex of
-// the parabola through |E| at it and its two neighbours, where the spectrum
-// is evaluated directly (dtft).
-func (s *Solver) spectralPeak(f Field, dw float64, kp int) float64 {
-	best := cmplxAbs(s.spec[kp])
+// peakVertex returns the frequency of the vertex of the parabola through
+// |E| at the largest bin kp and its two neighbours, and false when there is
+// none (kp at an end of the spectrum, or |E| not concave there).
+func (s *Solver) peakVertex(dw float64, kp int) (float64, bool) {
 	if kp == 0 || kp == len(s.spec)-1 {
-		return best
+		return 0, false
 	}
-	a, b, c := cmplxAbs(s.spec[kp-1]), best, cmplxAbs(s.spec[kp+1])
+	a, b, c := cmplxAbs(s.spec[kp-1]), cmplxAbs(s.spec[kp]), cmplxAbs(s.spec[kp+1])
 	den := a - 2*b + c
 	if den >= 0 {
-		return best
+		return 0, false
 	}
 	delta := 0.5 * (a - c) / den
-	v := cmplxAbs(dtft(f.VPerM, f.StepS, (float64(kp)+delta)*dw))
-	return math.Max(best, v)
+	return (float64(kp) + delta) * dw, true
 }
 
 // finish derives the outputs common to both methods and the cautions.
@@ -542,17 +560,42 @@ func checkIndex(idx complex128, freqHz float64) error {
 // phase advances by rotation, re-anchored every 64 samples.
 func dtft(x []float64, dt, omega float64) complex128 {
 	ci, cr := math.Sincos(omega * dt)
-	var accR, accI, sr, si float64
-	for n, v := range x {
-		if n%64 == 0 {
-			si, sr = math.Sincos(omega * dt * float64(n))
-		} else {
-			sr, si = sr*cr-si*ci, sr*ci+si*cr
+	var accR, accI float64
+	for b := 0; b < len(x); b += 64 {
+		si, sr := math.Sincos(omega * dt * float64(b))
+		for j, v := range x[b:min(b+64, len(x))] {
+			if j > 0 {
+				sr, si = sr*cr-si*ci, sr*ci+si*cr
+			}
+			accR += v * sr
+			accI += v * si
 		}
-		accR += v * sr
-		accI += v * si
 	}
 	return complex(accR*dt, accI*dt)
+}
+
+// dtft2 is dtft at two frequencies in one pass, each computed exactly as
+// dtft computes it: the two rotations do not wait on each other, so the
+// pass costs little more than one.
+func dtft2(x []float64, dt, w1, w2 float64) (complex128, complex128) {
+	ci1, cr1 := math.Sincos(w1 * dt)
+	ci2, cr2 := math.Sincos(w2 * dt)
+	var r1, i1, r2, i2 float64
+	for b := 0; b < len(x); b += 64 {
+		si1, sr1 := math.Sincos(w1 * dt * float64(b))
+		si2, sr2 := math.Sincos(w2 * dt * float64(b))
+		for j, v := range x[b:min(b+64, len(x))] {
+			if j > 0 {
+				sr1, si1 = sr1*cr1-si1*ci1, sr1*ci1+si1*cr1
+				sr2, si2 = sr2*cr2-si2*ci2, sr2*ci2+si2*cr2
+			}
+			r1 += v * sr1
+			i1 += v * si1
+			r2 += v * sr2
+			i2 += v * si2
+		}
+	}
+	return complex(r1*dt, i1*dt), complex(r2*dt, i2*dt)
 }
 
 func cmplxAbs(z complex128) float64 { return math.Hypot(real(z), imag(z)) }

@@ -105,17 +105,30 @@ func (m Model) envelopeRate() float64 {
 	return 2 * math.Ln2 / (m.EnvelopeFWHMS * m.EnvelopeFWHMS)
 }
 
+// gauss returns exp(-x²/2). Beyond |x| = 38.6 it is 0 without calling Exp,
+// which returns exactly 0 there (its argument is below -745.13, where
+// float64 underflows): most samples of a long window lie there.
+func gauss(x float64) float64 {
+	if h := x * x / 2; h < 746 {
+		return math.Exp(-h)
+	}
+	return 0
+}
+
 // At returns E(tS), V/m, for a model that passes Validate (NaN for an
 // unknown shape).
-func (m Model) At(tS float64) float64 {
+func (m Model) At(tS float64) float64 { return m.at(tS, m.TauS()) }
+
+// at is At with τ = TauS() given (Sample computes it once).
+func (m Model) at(tS, tau float64) float64 {
 	e0 := m.PeakFieldVPerM
 	switch m.Shape {
 	case SingleCycle:
-		x := tS / m.TauS()
-		return e0 * math.Sqrt(math.E) * x * math.Exp(-x*x/2)
+		x := tS / tau
+		return e0 * math.Sqrt(math.E) * x * gauss(x)
 	case CentralLobe:
-		x := tS / m.TauS()
-		return e0 * (1 - x*x) * math.Exp(-x*x/2)
+		x := tS / tau
+		return e0 * (1 - x*x) * gauss(x)
 	case Carrier:
 		return e0 * math.Exp(-m.envelopeRate()*tS*tS) * math.Cos(2*math.Pi*m.CarrierFrequencyHz*tS+m.CarrierPhaseRad)
 	}
@@ -147,8 +160,9 @@ func (m Model) Sample(stepS, spanS float64) (Trace, error) {
 		return Trace{}, inputErr("spanS", "span %g s reaches beyond ±%g s", spanS, MaxAbsStartS)
 	}
 	tr := Trace{StartS: start, StepS: stepS, Field: make([]float64, n), Absolute: true}
+	tau := m.TauS()
 	for i := range tr.Field {
-		tr.Field[i] = m.At(tr.TimeS(i))
+		tr.Field[i] = m.at(tr.TimeS(i), tau)
 	}
 	return tr, nil
 }

@@ -2,10 +2,7 @@ package pulse
 
 import (
 	"fmt"
-	"math/cmplx"
 	"sync"
-
-	"gonum.org/v1/gonum/dsp/fourier"
 )
 
 // Transform is the one Fourier transform of the project, in the convention
@@ -27,15 +24,14 @@ import (
 // Three paths compute the same sums (fft.go; each is tested against numpy.fft
 // and the DFT's definition): even lengths whose half has no prime factor
 // above 5 (every power of two, and every even length NextFastLength returns)
-// use a complex FFT of half the length; other lengths with no prime factor
-// above 5 use gonum's port of FFTPACK; all others, primes included, use
+// use a complex FFT of half the length; odd lengths with no prime factor
+// above 5 a complex FFT of the full length; all others, primes included,
 // Bluestein's algorithm, so that no length costs more than O(N log N).
 type Transform struct {
 	n    int
-	half *halfPlan    // even, half 5-smooth
-	blue *bluePlan    // not 5-smooth
-	plan *fourier.FFT // odd 5-smooth
-	work []complex128
+	half *halfPlan // even, half 5-smooth
+	odd  *oddPlan  // odd 5-smooth
+	blue *bluePlan // not 5-smooth
 }
 
 // NewTransform returns a transform for real sequences of length n >= 2.
@@ -46,10 +42,10 @@ func NewTransform(n int) *Transform {
 	if hp := newHalfPlan(n); hp != nil {
 		return &Transform{n: n, half: hp}
 	}
-	if radices(n) == nil {
-		return &Transform{n: n, blue: newBluePlan(n)}
+	if op := newOddPlan(n); op != nil {
+		return &Transform{n: n, odd: op}
 	}
-	return &Transform{n: n, plan: fourier.NewFFT(n), work: make([]complex128, n/2+1)}
+	return &Transform{n: n, blue: newBluePlan(n)}
 }
 
 // Len is the length N of the real sequences the transform takes.
@@ -68,19 +64,14 @@ func (t *Transform) Forward(dst []complex128, field []float64, stepS float64) []
 	if dst == nil {
 		dst = make([]complex128, t.Bins())
 	}
+	dst = dst[:t.Bins()]
 	switch {
 	case t.half != nil:
-		dst = dst[:t.Bins()]
 		t.half.forward(dst, field, stepS, true)
-		return dst
-	case t.blue != nil:
-		dst = dst[:t.Bins()]
+	case t.odd != nil:
+		t.odd.forward(dst, field, stepS, true)
+	default:
 		t.blue.forward(dst, field, stepS, true)
-		return dst
-	}
-	dst = t.plan.Coefficients(dst[:t.Bins()], field)
-	for k, c := range dst {
-		dst[k] = complex(stepS*real(c), -stepS*imag(c))
 	}
 	return dst
 }
@@ -96,22 +87,15 @@ func (t *Transform) Inverse(dst []float64, spec []complex128, stepS float64) []f
 	if dst == nil {
 		dst = make([]float64, t.n)
 	}
+	dst = dst[:t.n]
 	switch {
 	case t.half != nil:
 		// spec holds dt·conj(X_k); the sum over it is m·dt times x.
-		t.half.inverse(dst[:t.n], spec, 1/(float64(t.half.m)*stepS), true)
-		return dst[:t.n]
-	case t.blue != nil:
-		t.blue.inverse(dst[:t.n], spec, 1/(float64(t.n)*stepS), true)
-		return dst[:t.n]
-	}
-	for k, c := range spec {
-		t.work[k] = cmplx.Conj(c)
-	}
-	dst = t.plan.Sequence(dst[:t.n], t.work)
-	scale := 1 / (float64(t.n) * stepS)
-	for i := range dst {
-		dst[i] *= scale
+		t.half.inverse(dst, spec, 1/(float64(t.half.m)*stepS), true)
+	case t.odd != nil:
+		t.odd.inverse(dst, spec, 1/(float64(t.n)*stepS), true)
+	default:
+		t.blue.inverse(dst, spec, 1/(float64(t.n)*stepS), true)
 	}
 	return dst
 }

@@ -75,10 +75,10 @@ func (t *Transform) path() string {
 	switch {
 	case t.half != nil:
 		return "half-length complex FFT"
-	case t.blue != nil:
-		return "Bluestein"
+	case t.odd != nil:
+		return "full-length complex FFT"
 	}
-	return "gonum FFTPACK"
+	return "Bluestein"
 }
 
 // naiveDFT is the DFT by its definition (physics.md §1), E_k = dt·Σ_n x_n
@@ -270,7 +270,7 @@ func TestCausality(t *testing.T) {
 // round-off of two transforms).
 func TestRoundTrip(t *testing.T) {
 	rng := rand.New(rand.NewPCG(3, 4))
-	for _, n := range []int{8, 9, 1000, 1001, 4096, 4099, 65536} {
+	for _, n := range []int{8, 9, 1000, 1001, 1125, 4096, 4099, 65536} {
 		x := make([]float64, n)
 		for i := range x {
 			x[i] = rng.NormFloat64()
@@ -295,6 +295,46 @@ func TestRoundTrip(t *testing.T) {
 	}
 }
 
+// TestTableCacheBounded checks that the cache of immutable tables keeps at
+// most tableCacheBytes, dropping the oldest entries first, and that a
+// transform built after its tables were dropped still computes the same
+// spectrum, bit for bit (the tables are rebuilt the same way).
+func TestTableCacheBounded(t *testing.T) {
+	x := make([]float64, 4096)
+	rng := rand.New(rand.NewPCG(9, 10))
+	for i := range x {
+		x[i] = rng.NormFloat64()
+	}
+	before := NewTransform(4096).Forward(nil, x, 1)
+	const fake = tableKind(99)
+	big := tableCacheBytes/2 + 1
+	for i := range 3 {
+		tableFor(tableKey{kind: fake, n: i}, func() (any, int) { return i, big })
+		tables.Lock()
+		bytes, kept := tables.bytes, len(tables.m)
+		_, newest := tables.m[tableKey{kind: fake, n: i}]
+		_, older := tables.m[tableKey{kind: fake, n: i - 1}]
+		tables.Unlock()
+		if bytes > tableCacheBytes || !newest || (i > 0 && older) {
+			t.Fatalf("after entry %d: %d bytes in %d entries (limit %d), newest kept %v, previous kept %v", i, bytes, kept, tableCacheBytes, newest, older)
+		}
+	}
+	after := NewTransform(4096).Forward(nil, x, 1)
+	for k := range before {
+		if before[k] != after[k] {
+			t.Fatalf("bin %d: %v with rebuilt tables, %v before", k, after[k], before[k])
+		}
+	}
+	tables.Lock()
+	delete(tables.m, tableKey{kind: fake, n: 2})
+	tables.bytes -= big
+	tables.order = tables.order[:0]
+	for k := range tables.m {
+		tables.order = append(tables.order, k)
+	}
+	tables.Unlock()
+}
+
 // TestAcquireReuses checks that a released transform is handed out again for
 // the same length (the pool is what keeps Analyze from rebuilding plans) and
 // that lengths are not mixed.
@@ -313,8 +353,16 @@ func TestAcquireReuses(t *testing.T) {
 	}
 }
 
+// benchLengths are the lengths of the FFT benchmarks: powers of two from
+// 1024 to 65536, a 5-smooth length that is not a power of two (5000) and a
+// prime (4099, Bluestein's path). tools/bench times numpy.fft.rfft and
+// FFTW's r2c at the same lengths.
+var benchLengths = []int{1024, 2048, 4096, 8192, 16384, 32768, 65536, 5000, 4099}
+
+// BenchmarkForward is the real-to-complex transform (one-sided spectrum) of
+// random data, the operation numpy.fft.rfft performs.
 func BenchmarkForward(b *testing.B) {
-	for _, n := range []int{1024, 4096, 5000, 65536, 4099} {
+	for _, n := range benchLengths {
 		b.Run(fmt.Sprint(n), func(b *testing.B) {
 			x := make([]float64, n)
 			rng := rand.New(rand.NewPCG(5, 6))
@@ -332,9 +380,29 @@ func BenchmarkForward(b *testing.B) {
 	}
 }
 
+// BenchmarkInverse is the complex-to-real transform back (numpy.fft.irfft).
+func BenchmarkInverse(b *testing.B) {
+	for _, n := range benchLengths {
+		b.Run(fmt.Sprint(n), func(b *testing.B) {
+			x := make([]float64, n)
+			rng := rand.New(rand.NewPCG(5, 6))
+			for i := range x {
+				x[i] = rng.NormFloat64()
+			}
+			tr := NewTransform(n)
+			spec := tr.Forward(nil, x, 1e-14)
+			b.ReportAllocs()
+			b.ResetTimer()
+			for b.Loop() {
+				tr.Inverse(x, spec, 1e-14)
+			}
+		})
+	}
+}
+
 // BenchmarkForwardGonum measures gonum's FFTPACK port alone (plus the
-// conjugation into our convention), the transform every length used before
-// the paths of fft.go, for comparison with BenchmarkForward.
+// conjugation and scaling into our convention), the transform every length
+// used before the paths of fft.go, for comparison with BenchmarkForward.
 func BenchmarkForwardGonum(b *testing.B) {
 	for _, n := range []int{1024, 4096, 5000, 65536, 4099} {
 		b.Run(fmt.Sprint(n), func(b *testing.B) {
@@ -343,12 +411,15 @@ func BenchmarkForwardGonum(b *testing.B) {
 			for i := range x {
 				x[i] = rng.NormFloat64()
 			}
-			tr := &Transform{n: n, plan: fourier.NewFFT(n), work: make([]complex128, n/2+1)}
-			dst := make([]complex128, tr.Bins())
+			plan := fourier.NewFFT(n)
+			dst := make([]complex128, n/2+1)
 			b.ReportAllocs()
 			b.ResetTimer()
 			for b.Loop() {
-				tr.Forward(dst, x, 1e-14)
+				plan.Coefficients(dst, x)
+				for k, c := range dst {
+					dst[k] = complex(1e-14*real(c), -1e-14*imag(c))
+				}
 			}
 		})
 	}
