@@ -9,7 +9,7 @@ import (
 
 // TestGridRecurrenceMatchesDirect: on a uniform grid Evaluate advances the
 // exponentials of fixed layers and slabs by recurrence, re-anchored every
-// gridAnchorEvery steps. Solver.gridAnchor states the bound: the
+// gridAnchorEvery steps. Solver.gridAnchor states the (derived) bound: the
 // recurrence adds at most (2 + 4.3·j)·u, u = 2^-53, j <= 31 steps from an
 // anchor (1.5e-14), to the rounding of the phase θ = ωñd/c that any
 // evaluation in float64 carries (a few |θ|·u; the recurrence and the

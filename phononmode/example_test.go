@@ -9,7 +9,8 @@ import (
 )
 
 // The GaAs transverse-optical mode under a static 1 MV/cm inside the
-// crystal (physics.md §5): with Born charge 2.16, reduced mass 36.114 amu
+// crystal (physics.md §5, derived from published GaAs parameters of Hass &
+// Henvis (1962)): with Born charge 2.16, reduced mass 36.114 amu
 // and W_TO = 268 cm⁻¹ the sublattices shift by Z_B·e·E/(μW²) = 0.2264 pm.
 // Z* = 2.16/√36.114 e/√amu, and Born–Huang gives Δε = 1.960 (2.01 needs
 // Z_B = 2.19).
@@ -27,7 +28,8 @@ func ExampleDiatomicZStar() {
 
 // A single-cycle pulse peaking at the GaAs TO frequency (8.03 THz), 1 MV/cm
 // inside the crystal, drives the mode; the Lindemann ratio uses the Ga–As
-// bond length a·√3/4. The numbers printed are the package's own output,
+// bond length a·√3/4 (lattice constant of physics.md §5, a published GaAs
+// value). The numbers printed are the package's own output,
 // shown for orientation; the physics checks are in the tests.
 func ExampleDrive() {
 	a := 5.65325 * units.Angstrom

@@ -7,7 +7,8 @@ import (
 	"thzdrive/units"
 )
 
-// The worked checks of physics.md §2 and §3: a single-cycle pulse peaking at
+// The worked checks of physics.md §2 and §3 (derived from the Gaussian
+// integral and the calibration formula): a single-cycle pulse peaking at
 // 1 THz with 100 kV/cm carries 10.18 uJ/cm²; 1 uJ of the same waveform in a
 // 500 um (1/e²) spot reaches about 500 kV/cm.
 func Example() {

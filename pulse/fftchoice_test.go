@@ -14,7 +14,8 @@ import (
 // dsp/fourier, go-dsp's fft, and our own half-length transform
 // (Transform). BenchmarkFFTChoice times the three on the same real input;
 // the README's performance section records the ratios. Before timing them
-// the test below checks that they compute the same thing, so the
+// the test below checks that they compute the same thing (go-dsp serving as
+// an independent library source for the check), so the
 // comparison is of equals: go-dsp's e^{-2πi kn/N} forward transform of real
 // data is the complex conjugate of ours, up to the factor dt (physics.md §1).
 

@@ -1,5 +1,9 @@
 package server
 
+// This file checks behaviour (formats, limits, protocol, timing, no panic)
+// or provides helpers; it holds no physics check value that would need a
+// source.
+
 import (
 	"context"
 	"errors"
