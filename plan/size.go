@@ -113,24 +113,16 @@ func Size(shape pulse.Trace, c Chain, g Goal) (Sizing, error) {
 
 // unitPeak returns shape scaled to max|E| = 1 V/m, absolute.
 func unitPeak(shape pulse.Trace) (pulse.Trace, error) {
-	peak := 0.0
-	for _, x := range shape.Field {
-		peak = math.Max(peak, math.Abs(x))
-	}
+	peak := shape.PeakAbs()
 	if peak == 0 || math.IsInf(peak, 0) || math.IsNaN(peak) {
 		return pulse.Trace{}, errors.New("the waveform is zero everywhere: it has no shape to scale")
 	}
-	out := scaledTrace(shape, 1/peak)
-	return out, nil
+	return scaledTrace(shape, 1/peak), nil
 }
 
 // scaledTrace returns tr times f, marked absolute.
 func scaledTrace(tr pulse.Trace, f float64) pulse.Trace {
-	out := tr
+	out := tr.Scaled(f)
 	out.Absolute = true
-	out.Field = make([]float64, len(tr.Field))
-	for i, x := range tr.Field {
-		out.Field[i] = x * f
-	}
 	return out
 }

@@ -180,3 +180,23 @@ func Resample(timesS, field []float64, absolute bool) (Trace, error) {
 	}
 	return out, nil
 }
+
+// PeakAbs returns max |E| over the samples (0 for an empty trace).
+func (tr Trace) PeakAbs() float64 {
+	peak := 0.0
+	for _, x := range tr.Field {
+		peak = math.Max(peak, math.Abs(x))
+	}
+	return peak
+}
+
+// Scaled returns a copy of tr with every sample multiplied by f; tr is not
+// changed.
+func (tr Trace) Scaled(f float64) Trace {
+	out := tr
+	out.Field = make([]float64, len(tr.Field))
+	for i, x := range tr.Field {
+		out.Field[i] = x * f
+	}
+	return out
+}

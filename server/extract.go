@@ -88,7 +88,7 @@ func (s *Service) resolveExtraction(v *violations, prefix string, r *thzdrivev1.
 	if r.Processing == nil {
 		r.Processing = &thzdrivev1.Processing{}
 	}
-	in.to.Processing = s.resolveProcessing(v, "processing", r.Processing, false, in.ref.Len())
+	in.to.Processing = s.resolveProcessing(v, "processing", r.Processing, false)
 	if r.MarginDb == 0 {
 		r.MarginDb = tdsfit.DefaultMarginDB
 	}

@@ -221,10 +221,7 @@ func modeDriveToWire(m phononmode.Mode, d plan.Drive) *thzdrivev1.ModeDrive {
 	if r.Method == phononmode.TimeDomain {
 		method = thzdrivev1.DriveMethod_DRIVE_METHOD_TIME_DOMAIN
 	}
-	peakInside := 0.0
-	for _, x := range d.Inside.Field {
-		peakInside = math.Max(peakInside, math.Abs(x))
-	}
+	peakInside := d.Inside.PeakAbs()
 	return &thzdrivev1.ModeDrive{
 		PeakFieldInsideKvPerCm:       peakInside / units.KVPerCm,
 		MaxQASqrtAmu:                 r.MaxAbsQMSqrtKg / units.AngstromSqrtAmu,
@@ -234,7 +231,7 @@ func modeDriveToWire(m phononmode.Mode, d plan.Drive) *thzdrivev1.ModeDrive {
 		LindemannRatio:               r.LindemannRatio,
 		ModeEnergyMev:                r.ModeEnergyJ / units.MilliEV,
 		Quanta:                       r.Quanta,
-		AbsorbedEnergyDensityJPerCm3: r.AbsorbedJPerM3 * cm3,
+		AbsorbedEnergyDensityJPerCm3: r.AbsorbedJPerM3 / units.JPerCm3,
 		Overlap:                      r.Overlap,
 		RelativeAmplitudeAtMode:      r.RelAmplitudeAtMode,
 		AnharmonicShiftThz:           r.AnharmonicShiftHz / units.THz,

@@ -34,7 +34,7 @@ func (s *Service) AnalyzePulse(ctx context.Context, req *thzdrivev1.AnalyzePulse
 	if resolved.Processing == nil {
 		resolved.Processing = &thzdrivev1.Processing{}
 	}
-	proc := s.resolveProcessing(&v, "processing", resolved.Processing, isModel, tr.Len())
+	proc := s.resolveProcessing(&v, "processing", resolved.Processing, isModel)
 	if err := v.err(); err != nil {
 		return nil, err
 	}
@@ -191,7 +191,7 @@ func (s *Service) resolveTrace(v *violations, path string, t *thzdrivev1.Sampled
 	return pulse.Trace{StartS: t.StartPs * units.Ps, StepS: t.StepFs * units.Fs, Field: field, Absolute: absolute}
 }
 
-func (s *Service) resolveProcessing(v *violations, path string, p *thzdrivev1.Processing, isModel bool, samples int) pulse.Processing {
+func (s *Service) resolveProcessing(v *violations, path string, p *thzdrivev1.Processing, isModel bool) pulse.Processing {
 	if p.Baseline == thzdrivev1.BaselineRemoval_BASELINE_REMOVAL_UNSPECIFIED {
 		p.Baseline = thzdrivev1.BaselineRemoval_BASELINE_REMOVAL_PRE_PULSE
 		if isModel {
@@ -238,7 +238,6 @@ func (s *Service) resolveProcessing(v *violations, path string, p *thzdrivev1.Pr
 		v.add(path+".pad_to_samples", "%d samples, over the limit of %d", p.PadToSamples, s.limits.MaxSamples)
 	}
 	out.PadToSamples = int(p.PadToSamples)
-	_ = samples
 	return out
 }
 
@@ -374,7 +373,9 @@ func (s *Service) calibrateEO(v *violations, path string, eo *thzdrivev1.Electro
 	}
 	modulation := shape
 	if !useTrace {
-		modulation = scaledToPeak(shape, math.Abs(eo.PeakModulation))
+		if peak := shape.PeakAbs(); peak > 0 {
+			modulation = shape.Scaled(math.Abs(eo.PeakModulation) / peak)
+		}
 	}
 	cal, err := pulse.CalibrateEO(setup, modulation)
 	if err != nil {
@@ -444,23 +445,6 @@ func resolveEOSetup(v *violations, path string, eo *thzdrivev1.ElectroOpticCalib
 	v.positive(path+".thickness_um", eo.ThicknessUm)
 	v.positive(path+".probe_wavelength_nm", eo.ProbeWavelengthNm)
 	return pulse.EOSetup{Crystal: c, ThicknessM: eo.ThicknessUm * units.Um, ProbeWavelengthM: eo.ProbeWavelengthNm * units.Nm}
-}
-
-// scaledToPeak returns a copy of tr scaled so that max|E| = peak.
-func scaledToPeak(tr pulse.Trace, peak float64) pulse.Trace {
-	maxAbs := 0.0
-	for _, x := range tr.Field {
-		maxAbs = math.Max(maxAbs, math.Abs(x))
-	}
-	out := tr
-	out.Field = make([]float64, len(tr.Field))
-	if maxAbs == 0 {
-		return out
-	}
-	for i, x := range tr.Field {
-		out.Field[i] = x * peak / maxAbs
-	}
-	return out
 }
 
 func traceToWire(tr pulse.Trace) *thzdrivev1.SampledTrace {

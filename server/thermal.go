@@ -87,9 +87,6 @@ func heatingInputs(v *violations, prefix string, r *thzdrivev1.EstimateHeatingRe
 	return in
 }
 
-// cm3 is one cubic centimetre in m³.
-const cm3 = units.Cm * units.Cm * units.Cm
-
 func heatCapacity(v *violations, path string, m *thzdrivev1.HeatCapacityModel) thermal.HeatCapacity {
 	var (
 		hc  thermal.HeatCapacity
@@ -100,7 +97,7 @@ func heatCapacity(v *violations, path string, m *thzdrivev1.HeatCapacityModel) t
 		if !v.positive(path+".constant_j_per_cm3_k", k.ConstantJPerCm3K) {
 			return nil
 		}
-		hc, err = thermal.NewConstant(k.ConstantJPerCm3K / cm3)
+		hc, err = thermal.NewConstant(k.ConstantJPerCm3K * units.JPerCm3)
 	case *thzdrivev1.HeatCapacityModel_Table:
 		t := k.Table
 		if !v.allFinite(path+".table.temperature_k", t.TemperatureK) || !v.allFinite(path+".table.capacity_j_per_cm3_k", t.CapacityJPerCm3K) {
@@ -108,7 +105,7 @@ func heatCapacity(v *violations, path string, m *thzdrivev1.HeatCapacityModel) t
 		}
 		c := make([]float64, len(t.CapacityJPerCm3K))
 		for i, x := range t.CapacityJPerCm3K {
-			c[i] = x / cm3
+			c[i] = x * units.JPerCm3
 		}
 		hc, err = thermal.NewTable(t.TemperatureK, c)
 		path += ".table"
@@ -185,7 +182,7 @@ func budgetToWire(b thermal.Budget) *thzdrivev1.HeatingBudget {
 		AbsorbedFluenceUjPerCm2:       b.AbsorbedFluenceJPerM2 / units.UJPerCm2,
 		AbsorbedPulseEnergyUj:         b.AbsorbedPulseEnergyJ / units.UJ,
 		AbsorptionDepthUm:             b.AbsorptionDepthM / units.Um,
-		PeakEnergyDensityJPerCm3:      b.PeakEnergyDensityJPerM3 * cm3,
+		PeakEnergyDensityJPerCm3:      b.PeakEnergyDensityJPerM3 / units.JPerCm3,
 		AbsorbedPowerMw:               b.AbsorbedPowerW / units.MW,
 		SteadyStateRiseK:              b.SteadyStateRiseK,
 		SteadyStateTemperatureK:       b.SteadyStateTemperatureK,

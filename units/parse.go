@@ -22,69 +22,71 @@ const (
 	Temperature
 	Rate
 	Angle
+	Volume
+	Mass
+	EffectiveCharge  // mode effective charge Z*
+	NormalCoordinate // mode amplitude Q
+	Absorption       // absorption coefficient
+	HeatCapacity     // volumetric heat capacity
+	Conductivity     // thermal conductivity
+	NumberDensity
 )
 
 var kindNames = map[Kind]string{
 	Frequency: "frequency", Field: "field", Time: "time", Length: "length",
 	Energy: "energy", Fluence: "fluence", Power: "power", Temperature: "temperature",
-	Rate: "repetition rate", Angle: "angle",
+	Rate: "repetition rate", Angle: "angle", Volume: "volume", Mass: "mass",
+	EffectiveCharge: "effective charge", NormalCoordinate: "normal coordinate",
+	Absorption: "absorption coefficient", HeatCapacity: "volumetric heat capacity",
+	Conductivity: "thermal conductivity", NumberDensity: "number density",
 }
 
 func (k Kind) String() string { return kindNames[k] }
 
-// table maps each accepted unit spelling to its kind and SI factor. It is the
-// only place where a unit written by a person is turned into SI.
-var table = map[string]struct {
-	kind   Kind
-	factor float64
-}{
-	"hz": {Frequency, Hz}, "ghz": {Frequency, GHz}, "thz": {Frequency, THz},
-	"cm-1": {Frequency, InvCm}, "cm^-1": {Frequency, InvCm}, "1/cm": {Frequency, InvCm},
-	"mev": {Frequency, MeV},
+const degree = 0.017453292519943295 // π/180 rad
 
-	"v/m": {Field, VPerM}, "v/cm": {Field, 1 / Cm}, "kv/cm": {Field, KVPerCm}, "mv/cm": {Field, MVPerCm},
-
-	"s": {Time, Second}, "ns": {Time, 1e-9}, "ps": {Time, Ps}, "fs": {Time, Fs},
-
-	"m": {Length, Metre}, "cm": {Length, Cm}, "mm": {Length, Mm}, "um": {Length, Um},
-	"µm": {Length, Um}, "nm": {Length, Nm}, "a": {Length, Angstrom}, "å": {Length, Angstrom},
-
-	"j": {Energy, Joule}, "mj": {Energy, MJ}, "uj": {Energy, UJ}, "µj": {Energy, UJ}, "nj": {Energy, NJ},
-
-	"j/m2": {Fluence, JPerM2}, "j/cm2": {Fluence, JPerCm2}, "mj/cm2": {Fluence, MJPerCm2},
-	"uj/cm2": {Fluence, UJPerCm2}, "µj/cm2": {Fluence, UJPerCm2},
-
-	"w": {Power, Watt}, "mw": {Power, MW}, "uw": {Power, 1e-6}, "µw": {Power, 1e-6},
-
-	"k": {Temperature, 1},
-
-	"khz": {Rate, 1e3}, "mhz": {Rate, 1e6},
-
-	"rad": {Angle, 1}, "deg": {Angle, 0.017453292519943295}, "°": {Angle, 0.017453292519943295},
+// table maps, for each kind, every accepted unit spelling (lower case) to
+// its SI value. It is the only place where a unit written by a person is
+// turned into SI. A spelling may mean different kinds ("1/cm" is a
+// wavenumber or an absorption coefficient); the kind asked for decides.
+var table = map[Kind]map[string]float64{
+	Frequency: {"hz": Hz, "ghz": GHz, "thz": THz, "cm-1": InvCm, "cm^-1": InvCm, "1/cm": InvCm, "mev": MeV},
+	Field:     {"v/m": VPerM, "v/cm": 1 / Cm, "kv/cm": KVPerCm, "mv/cm": MVPerCm},
+	Time:      {"s": Second, "ns": 1e-9, "ps": Ps, "fs": Fs},
+	Length: {"m": Metre, "cm": Cm, "mm": Mm, "um": Um, "µm": Um, "nm": Nm, "pm": Pm,
+		"a": Angstrom, "å": Angstrom},
+	Energy:      {"j": Joule, "mj": MJ, "uj": UJ, "µj": UJ, "nj": NJ},
+	Fluence:     {"j/m2": JPerM2, "j/cm2": JPerCm2, "mj/cm2": MJPerCm2, "uj/cm2": UJPerCm2, "µj/cm2": UJPerCm2},
+	Power:       {"w": Watt, "mw": MW, "uw": 1e-6, "µw": 1e-6},
+	Temperature: {"k": 1},
+	Rate:        {"hz": 1, "khz": 1e3, "mhz": 1e6},
+	Angle:       {"rad": 1, "deg": degree, "°": degree},
+	Volume: {"å^3": CubicAngstrom, "a^3": CubicAngstrom, "å3": CubicAngstrom, "a3": CubicAngstrom,
+		"angstrom3": CubicAngstrom, "nm3": Nm * Nm * Nm, "nm^3": Nm * Nm * Nm},
+	Mass:             {"amu": Amu, "u": Amu, "da": Amu, "kg": 1},
+	EffectiveCharge:  {"e/sqrt(amu)": ESqrtAmu, "e/√amu": ESqrtAmu},
+	NormalCoordinate: {"å·sqrt(amu)": AngstromSqrtAmu, "a*sqrt(amu)": AngstromSqrtAmu, "å*sqrt(amu)": AngstromSqrtAmu, "a sqrt(amu)": AngstromSqrtAmu},
+	Absorption:       {"1/cm": PerCm, "/cm": PerCm, "cm-1": PerCm, "cm^-1": PerCm, "1/m": 1, "1/um": 1 / Um},
+	HeatCapacity:     {"j/(cm3 k)": JPerCm3, "j/cm3/k": JPerCm3, "j/(cm^3 k)": JPerCm3, "j/(m3 k)": 1, "j/m3/k": 1},
+	Conductivity:     {"w/(m k)": 1, "w/m/k": 1, "w/mk": 1, "w/(cm k)": 1 / Cm, "w/cm/k": 1 / Cm},
+	NumberDensity:    {"1/nm3": 1 / (Nm * Nm * Nm), "/nm3": 1 / (Nm * Nm * Nm), "nm-3": 1 / (Nm * Nm * Nm), "1/nm^3": 1 / (Nm * Nm * Nm), "1/cm3": JPerCm3, "cm-3": JPerCm3, "1/m3": 1},
 }
 
-// lookup finds a unit of the wanted kind; Hz and MHz also serve as repetition rates.
-func lookup(unit string, kind Kind) (float64, bool) {
-	u, ok := table[unit]
-	if ok && u.kind == kind {
-		return u.factor, true
+// kindsOf lists the kinds a spelling belongs to, for a helpful error.
+func kindsOf(unit string) []string {
+	var out []string
+	for k, units := range table {
+		if _, ok := units[unit]; ok {
+			out = append(out, k.String())
+		}
 	}
-	if kind == Rate && ok && u.kind == Frequency && unit == "hz" {
-		return 1, true
-	}
-	if kind == Rate && unit == "mhz" {
-		return 1e6, true
-	}
-	return 0, false
+	sort.Strings(out)
+	return out
 }
 
-// Parse reads a quantity such as "1.2 MV/cm", "80 cm-1", "9.9 meV" or
-// "450 uJ/cm2" and returns it in SI. A bare number is taken in defaultUnit
-// (a spelling from the table, for example "kV/cm"). Units are matched without
-// regard to case, except that "MV/cm" and "mV/cm" are both mega (no field
-// is written in millivolts per centimetre) and "mJ" is milli. A unit of the
-// wrong kind, or an unknown one, is an error that lists the accepted units.
-func Parse(s string, kind Kind, defaultUnit string) (float64, error) {
+// Split splits "1.2 MV/cm" into the number "1.2" and the unit "MV/cm": the
+// number is the leading run of digits, signs, points and exponents.
+func Split(s string) (number, unit string) {
 	s = strings.TrimSpace(s)
 	i := 0
 	for i < len(s) && (unicode.IsDigit(rune(s[i])) || strings.ContainsRune("+-.eE", rune(s[i]))) {
@@ -94,7 +96,17 @@ func Parse(s string, kind Kind, defaultUnit string) (float64, error) {
 		}
 		i++
 	}
-	num, unit := s[:i], strings.TrimSpace(s[i:])
+	return s[:i], strings.TrimSpace(s[i:])
+}
+
+// Parse reads a quantity such as "1.2 MV/cm", "80 cm-1", "9.9 meV" or
+// "450 uJ/cm2" and returns it in SI. A bare number is taken in defaultUnit
+// (a spelling from the table, for example "kV/cm"). Units are matched without
+// regard to case, except that "MV/cm" and "mV/cm" are both mega (no field
+// is written in millivolts per centimetre) and "mJ" is milli. A unit of the
+// wrong kind, or an unknown one, is an error that lists the accepted units.
+func Parse(s string, kind Kind, defaultUnit string) (float64, error) {
+	num, unit := Split(s)
 	x, err := strconv.ParseFloat(num, 64)
 	if err != nil {
 		return 0, fmt.Errorf("%q is not a number with a unit (like %q)", s, "1.5 "+defaultUnit)
@@ -102,11 +114,10 @@ func Parse(s string, kind Kind, defaultUnit string) (float64, error) {
 	if unit == "" {
 		unit = defaultUnit
 	}
-	key := strings.ToLower(unit)
-	factor, ok := lookup(key, kind)
+	factor, ok := table[kind][strings.ToLower(unit)]
 	if !ok {
-		if u, known := table[key]; known {
-			return 0, fmt.Errorf("%q is a %s, not a %s; use one of %s", unit, u.kind, kind, strings.Join(Accepted(kind), ", "))
+		if other := kindsOf(strings.ToLower(unit)); len(other) > 0 {
+			return 0, fmt.Errorf("%q is a %s, not a %s; use one of %s", unit, strings.Join(other, " or "), kind, strings.Join(Accepted(kind), ", "))
 		}
 		return 0, fmt.Errorf("unknown unit %q for a %s; use one of %s", unit, kind, strings.Join(Accepted(kind), ", "))
 	}
@@ -116,10 +127,8 @@ func Parse(s string, kind Kind, defaultUnit string) (float64, error) {
 // Accepted lists the unit spellings Parse accepts for kind.
 func Accepted(kind Kind) []string {
 	var out []string
-	for k, u := range table {
-		if u.kind == kind {
-			out = append(out, k)
-		}
+	for k := range table[kind] {
+		out = append(out, k)
 	}
 	sort.Strings(out)
 	return out

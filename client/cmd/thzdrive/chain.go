@@ -239,22 +239,16 @@ type modeFlags struct {
 	fs                                 *flag.FlagSet
 }
 
-var (
-	cubicAngstrom = map[string]float64{"a3": 1, "å3": 1, "a^3": 1, "å^3": 1, "angstrom3": 1, "nm3": 1000, "nm^3": 1000}
-	amuSpellings  = map[string]float64{"amu": 1, "u": 1, "da": 1}
-	pmSpellings   = map[string]float64{"pm": units.Pm}
-)
-
 func addModeFlags(fs *flag.FlagSet) *modeFlags {
 	return &modeFlags{
 		fs:         fs,
 		frequency:  newQuantity(fs, "mode-frequency", units.Frequency, "THz", units.THz, "TO frequency of the mode, e.g. \"8 THz\", \"265 cm-1\", \"33 meV\""),
 		linewidth:  newQuantity(fs, "linewidth", units.Frequency, "THz", units.THz, "FWHM linewidth of the mode"),
 		deltaEps:   fs.Float64("delta-eps", 0, "oscillator strength of the mode (its step in the static permittivity)"),
-		charge:     newOwnQuantity(fs, "effective-charge", "e/sqrt(amu)", map[string]float64{"e/sqrt(amu)": 1, "e/√amu": 1}, "mode effective charge Z*, instead of --delta-eps"),
+		charge:     newQuantity(fs, "effective-charge", units.EffectiveCharge, "e/sqrt(amu)", units.ESqrtAmu, "mode effective charge Z*, instead of --delta-eps"),
 		oscillator: fs.Int("oscillator", -1, "drive oscillator N of the target layer's dielectric model (scenario samples with an inline model); -1 drops the scenario's reference to one"),
-		cellVolume: newOwnQuantity(fs, "cell-volume", "Å^3", cubicAngstrom, "unit-cell volume"),
-		mass:       newOwnQuantity(fs, "effective-mass", "amu", amuSpellings, "effective mass for the ion displacement"),
+		cellVolume: newQuantity(fs, "cell-volume", units.Volume, "Å^3", units.CubicAngstrom, "unit-cell volume"),
+		mass:       newQuantity(fs, "effective-mass", units.Mass, "amu", units.Amu, "effective mass for the ion displacement"),
 		bond:       newQuantity(fs, "bond-length", units.Length, "Å", units.Angstrom, "bond length for the Lindemann ratio"),
 		probeDepth: newQuantity(fs, "probe-depth", units.Length, "nm", units.Nm, "probe penetration depth for the depth-averaged response"),
 	}

@@ -141,9 +141,8 @@ func runSize(a *app, args []string) error {
 	fs.SetOutput(a.stderr)
 	cf := addChainFlags(fs)
 	mf := addModeFlags(fs)
-	targetQ := newOwnQuantity(fs, "target-q", "Å·sqrt(amu)", map[string]float64{"a*sqrt(amu)": 1, "å*sqrt(amu)": 1, "a sqrt(amu)": 1, "å·sqrt(amu)": 1}, "target max |Q|")
+	targetQ := newQuantity(fs, "target-q", units.NormalCoordinate, "Å·sqrt(amu)", units.AngstromSqrtAmu, "target max |Q|")
 	targetU := newQuantity(fs, "target-displacement", units.Length, "pm", units.Pm, "target peak ion displacement, e.g. \"1 pm\" (needs --effective-mass)")
-	targetU.extra = pmSpellings
 	targetN := fs.Float64("target-quanta", 0, "target mode energy in quanta per cell")
 	limit := newQuantity(fs, "source-limit", units.Energy, "uJ", units.UJ, "the most pulse energy the source gives (default: the scenario's pulse energy)")
 	maxField := newQuantity(fs, "max-field", units.Field, "kV/cm", units.KVPerCm, "stop the search at this incident peak field (default 50 MV/cm)")

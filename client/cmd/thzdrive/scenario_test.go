@@ -200,12 +200,12 @@ func TestQuantityFlag(t *testing.T) {
 		{&quantity{kind: units.Field, wireUnit: "kV/cm", wireSI: units.KVPerCm}, "1.2 MV/cm", 1200, true},
 		{&quantity{kind: units.Field, wireUnit: "kV/cm", wireSI: units.KVPerCm}, "250", 250, true},
 		{&quantity{kind: units.Field, wireUnit: "kV/cm", wireSI: units.KVPerCm}, "1 THz", 0, false},
-		{&quantity{kind: units.Length, wireUnit: "pm", wireSI: units.Pm, extra: pmSpellings}, "1 pm", 1, true},
-		{&quantity{kind: units.Length, wireUnit: "pm", wireSI: units.Pm, extra: pmSpellings}, "0.01 nm", 10, true},
-		{&quantity{wireUnit: "Å^3", wireSI: 1, extra: cubicAngstrom}, "0.15 nm3", 150, true},
-		{&quantity{wireUnit: "Å^3", wireSI: 1, extra: cubicAngstrom}, "150 Å3", 150, true},
-		{&quantity{wireUnit: "Å^3", wireSI: 1, extra: cubicAngstrom}, "150 cm", 0, false},
-		{&quantity{wireUnit: "amu", wireSI: 1, extra: amuSpellings}, "x", 0, false},
+		{&quantity{kind: units.Length, wireUnit: "pm", wireSI: units.Pm}, "1 pm", 1, true},
+		{&quantity{kind: units.Length, wireUnit: "pm", wireSI: units.Pm}, "0.01 nm", 10, true},
+		{&quantity{kind: units.Volume, wireUnit: "Å^3", wireSI: units.CubicAngstrom}, "0.15 nm3", 150, true},
+		{&quantity{kind: units.Volume, wireUnit: "Å^3", wireSI: units.CubicAngstrom}, "150 Å3", 150, true},
+		{&quantity{kind: units.Volume, wireUnit: "Å^3", wireSI: units.CubicAngstrom}, "150 cm", 0, false},
+		{&quantity{kind: units.Mass, wireUnit: "amu", wireSI: units.Amu}, "x", 0, false},
 	}
 	for _, tc := range tests {
 		err := tc.q.Set(tc.in)

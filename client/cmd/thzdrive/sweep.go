@@ -88,7 +88,7 @@ func parseAxis(spec string) (*thzdrivev1.SweepAxis, error) {
 	}
 	ax := &thzdrivev1.SweepAxis{Parameter: path}
 	value := func(s string) (float64, error) {
-		num, unit := splitQuantity(s)
+		num, unit := units.Split(s)
 		if unit == "" {
 			x, err := strconv.ParseFloat(num, 64)
 			if err != nil || math.IsNaN(x) || math.IsInf(x, 0) {

@@ -4,7 +4,6 @@ import (
 	"flag"
 	"fmt"
 	"os"
-	"sort"
 	"strconv"
 	"strings"
 
@@ -15,13 +14,11 @@ import (
 
 // quantity is a flag holding a number with a unit, converted to the unit of
 // the wire field it feeds (its name's suffix). A bare number is taken in that
-// unit. Units come from package units (kind), plus the extra spellings of a
-// quantity that package does not know (a cell volume in Å³, a mass in amu).
+// unit; units.Parse (the one unit table) reads the rest.
 type quantity struct {
-	kind     units.Kind // 0: only the extra spellings are accepted
-	wireUnit string     // the unit of the wire field, e.g. "kV/cm"
-	wireSI   float64    // SI value of one wireUnit
-	extra    map[string]float64
+	kind     units.Kind
+	wireUnit string  // the unit of the wire field, e.g. "kV/cm"
+	wireSI   float64 // SI value of one wireUnit
 	set      bool
 	value    float64 // in wireUnit
 	text     string
@@ -30,74 +27,19 @@ type quantity struct {
 func (q *quantity) String() string { return q.text }
 
 func (q *quantity) Set(s string) error {
-	num, unit := splitQuantity(s)
-	x, err := strconv.ParseFloat(num, 64)
+	si, err := units.Parse(s, q.kind, q.wireUnit)
 	if err != nil {
-		return fmt.Errorf("%q is not a number with a unit (like %q)", s, "1.5 "+q.wireUnit)
-	}
-	if f, ok := q.extra[strings.ToLower(unit)]; ok || unit == "" {
-		if !ok {
-			f = q.wireSI
-		}
-		q.value, q.set, q.text = x*f/q.wireSI, true, s
-		return nil
-	}
-	if q.kind == 0 {
-		return fmt.Errorf("unknown unit %q; use %s", unit, strings.Join(q.accepted(), ", "))
-	}
-	one, err := units.Parse("1 "+unit, q.kind, q.wireUnit)
-	if err != nil {
-		if len(q.extra) > 0 {
-			return fmt.Errorf("%v (also %s)", err, strings.Join(q.accepted(), ", "))
-		}
 		return err
 	}
-	// The factor to the wire unit, rounded to 15 digits so that "2 mm"
-	// becomes exactly 2000 um rather than 1999.9999999999998.
-	ratio, _ := strconv.ParseFloat(strconv.FormatFloat(one/q.wireSI, 'g', 15, 64), 64)
-	q.value, q.set, q.text = x*ratio, true, s
+	// Rounded to 15 digits so that "2 mm" becomes exactly 2000 um rather
+	// than 1999.9999999999998.
+	q.value, _ = strconv.ParseFloat(strconv.FormatFloat(si/q.wireSI, 'g', 15, 64), 64)
+	q.set, q.text = true, s
 	return nil
-}
-
-// accepted lists the extra spellings (or the wire unit alone).
-func (q *quantity) accepted() []string {
-	var out []string
-	for k := range q.extra {
-		out = append(out, k)
-	}
-	if len(out) == 0 {
-		out = append(out, q.wireUnit)
-	}
-	sort.Strings(out)
-	return out
-}
-
-// splitQuantity splits "1.2 MV/cm" into "1.2" and "MV/cm" as units.Parse
-// does: the number is the leading run of digits, signs, points and
-// exponents.
-func splitQuantity(s string) (num, unit string) {
-	s = strings.TrimSpace(s)
-	i := 0
-	for i < len(s) && (s[i] >= '0' && s[i] <= '9' || strings.ContainsRune("+-.eE", rune(s[i]))) {
-		if (s[i] == 'e' || s[i] == 'E') && (i+1 >= len(s) || !strings.ContainsRune("+-0123456789", rune(s[i+1]))) {
-			break
-		}
-		i++
-	}
-	return s[:i], strings.TrimSpace(s[i:])
 }
 
 func newQuantity(fs *flag.FlagSet, name string, kind units.Kind, wireUnit string, wireSI float64, usage string) *quantity {
 	q := &quantity{kind: kind, wireUnit: wireUnit, wireSI: wireSI}
-	fs.Var(q, name, fmt.Sprintf("%s (bare number: %s)", usage, wireUnit))
-	return q
-}
-
-// newOwnQuantity is a quantity in a unit package units does not list: only
-// the given spellings (lower case, each with its value in wire units) and a
-// bare number are accepted.
-func newOwnQuantity(fs *flag.FlagSet, name, wireUnit string, spellings map[string]float64, usage string) *quantity {
-	q := &quantity{wireUnit: wireUnit, wireSI: 1, extra: spellings}
 	fs.Var(q, name, fmt.Sprintf("%s (bare number: %s)", usage, wireUnit))
 	return q
 }
